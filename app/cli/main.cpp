@@ -1,0 +1,81 @@
+// earmark-cli: the batch side of Earmark.
+#include "arguments.hpp"
+#include "commands.hpp"
+#include "exit_codes.hpp"
+#include "terminal_progress.hpp"
+
+#include "earmark/core/error.hpp"
+
+#include <cstdio>
+#include <exception>
+#include <functional>
+#include <map>
+#include <string>
+#include <vector>
+
+namespace {
+
+using earmark::cli::ExitCode;
+
+struct Subcommand {
+    std::function<int(const std::vector<std::string>&)> run;
+    const char* summary;
+};
+
+const std::map<std::string, Subcommand>& subcommands() {
+    static const std::map<std::string, Subcommand> table = {
+        {"analyze", {earmark::cli::runAnalyze,
+                     "measure one take: F0 (YIN), energy, mel spectrogram, loudness"}},
+    };
+    return table;
+}
+
+void printUsage(std::FILE* to) {
+    std::fprintf(to, "usage: earmark-cli COMMAND [OPTIONS]\n\ncommands:\n");
+    for (const auto& [name, cmd] : subcommands()) std::fprintf(to, "  %-10s %s\n", name.c_str(), cmd.summary);
+    std::fprintf(to, "\n'earmark-cli COMMAND --help' lists the options of a command.\n"
+                     "exit codes: 0 ok, 2 bad usage, 3 bad input, 130 interrupted.\n");
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    std::vector<std::string> args(argv + 1, argv + argc);
+    if (args.empty() || args[0] == "--help" || args[0] == "-h" || args[0] == "help") {
+        printUsage(args.empty() ? stderr : stdout);
+        return args.empty() ? earmark::cli::kExitUsage : earmark::cli::kExitOk;
+    }
+    const auto it = subcommands().find(args[0]);
+    if (it == subcommands().end()) {
+        std::fprintf(stderr, "earmark-cli: unknown command '%s'\n", args[0].c_str());
+        printUsage(stderr);
+        return earmark::cli::kExitUsage;
+    }
+    earmark::cli::installInterruptHandler();
+    const std::string name = args[0];
+    args.erase(args.begin());
+    try {
+        return it->second.run(args);
+    } catch (const earmark::cli::UsageError& e) {
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        return earmark::cli::kExitUsage;
+    } catch (const earmark::ParamError& e) {
+        std::fprintf(stderr, "earmark-cli %s: invalid setting: %s\n", name.c_str(), e.what());
+        return earmark::cli::kExitUsage;
+    } catch (const earmark::InputError& e) {
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        return earmark::cli::kExitBadInput;
+    } catch (const earmark::Cancelled&) {
+        std::fprintf(stderr, "earmark-cli %s: interrupted\n", name.c_str());
+        return earmark::cli::kExitCancelled;
+    } catch (const earmark::Error& e) {
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        return earmark::cli::kExitFailure;
+    } catch (const std::bad_alloc&) {
+        std::fprintf(stderr, "earmark-cli %s: out of memory\n", name.c_str());
+        return earmark::cli::kExitFailure;
+    } catch (const std::exception& e) {
+        std::fprintf(stderr, "earmark-cli %s: internal error: %s\n", name.c_str(), e.what());
+        return earmark::cli::kExitFailure;
+    }
+}

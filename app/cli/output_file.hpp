@@ -1,0 +1,12 @@
+// Writing command output: "-" means stdout; files are written to a temporary
+// name next to the target and renamed, so a failed run never leaves half a file.
+#pragma once
+
+#include <string>
+
+namespace earmark::cli {
+
+// Throws earmark::Error naming the path when it cannot be written.
+void writeTextOutput(const std::string& path, const std::string& text);
+
+}  // namespace earmark::cli

@@ -1,0 +1,20 @@
+// Writes a mel spectrogram as a NumPy .npy array of shape (bands, frames),
+// float32 — the layout most synthesis models use for their mel features — plus
+// a sidecar "<path>.json" with the settings needed to compare it with a
+// model's own features (rate, hop, n_fft, window, bands, fmin, fmax, scale,
+// normalisation, magnitude/power, log base and floor, frame alignment).
+#pragma once
+
+#include "earmark/spectral/mel.hpp"
+
+#include <string>
+
+namespace earmark {
+
+// Throws Error naming the path if it cannot be written.
+void writeMelNpy(const std::string& path, const Spectrogram& mel, const MelParams& params);
+
+// The sidecar's file name for a given .npy path.
+std::string melSidecarPath(const std::string& npyPath);
+
+}  // namespace earmark
