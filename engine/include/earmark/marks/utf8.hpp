@@ -1,0 +1,19 @@
+// UTF-8 checks for text typed by people (notes, rater names, take texts).
+// Session files and defect lists store text as UTF-8 (RFC 3629), so text in
+// any other encoding is refused where it enters, with the byte offset.
+#pragma once
+
+#include <cstddef>
+#include <optional>
+#include <string_view>
+
+namespace earmark {
+
+// Offset of the first byte that breaks RFC 3629 UTF-8 (bad lead byte, missing
+// or extra continuation byte, overlong form, surrogate, above U+10FFFF);
+// empty when the whole text is valid.
+std::optional<std::size_t> firstInvalidUtf8(std::string_view text);
+
+inline bool isValidUtf8(std::string_view text) { return !firstInvalidUtf8(text).has_value(); }
+
+}  // namespace earmark

@@ -1,0 +1,132 @@
+// A listening session: one `.earmark` file (an SQLite 3 database) holding the
+// queue of takes, their tiers, marks, review statuses and suspects. The file
+// layout is described in docs/session-store.md.
+//
+// Durability: every change is one SQLite transaction, committed before the
+// call returns; there is no "save". The file is in WAL mode with
+// synchronous=FULL, so a committed change survives a crash of the program and
+// of the machine (the WAL is fsync'ed at each commit). Other processes (the
+// command line, a second window) may open the same file at any time: each
+// reader sees the state after some committed transaction, never half of one;
+// writers wait for each other up to kBusyTimeoutMs.
+//
+// Schema versions: PRAGMA user_version holds the version; opening a file with
+// an older version upgrades it in one transaction (all steps or none); a file
+// from a newer Earmark is refused and left untouched.
+//
+// Errors: InputError (subject = the session file) for a file that is missing,
+// not a session, damaged, from a newer schema, or a take/mark id that does not
+// exist; ParamError for an invalid mark, take or suspect field; Error for
+// write failures (disk full, read-only location, locked too long). After any
+// error the file holds exactly what it held before the failed call.
+//
+// Thread-safety: a Session is one SQLite connection and must be used by one
+// thread at a time. Separate Session objects (in any threads or processes) on
+// the same file are safe.
+#pragma once
+
+#include "earmark/marks/mark.hpp"
+#include "earmark/store/mark_edit.hpp"
+#include "earmark/store/suspect.hpp"
+#include "earmark/store/take.hpp"
+
+#include <memory>
+#include <optional>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace earmark {
+
+enum class OpenMode {
+    ReadWrite,  // upgrades an older schema; refuses a read-only file or folder
+    ReadOnly,   // never writes; refuses an older schema (it would need an upgrade)
+};
+
+class Session {
+public:
+    static constexpr int kSchemaVersion = 2;
+    static constexpr int kBusyTimeoutMs = 5000;
+
+    // Creates a new, empty session file. Refuses (InputError) when `path`
+    // exists; Error when the folder is missing or not writable.
+    static Session create(const std::string& path);
+    static Session open(const std::string& path, OpenMode mode = OpenMode::ReadWrite);
+
+    Session(Session&&) noexcept;
+    Session& operator=(Session&&) noexcept;
+    ~Session();
+
+    const std::string& path() const;
+    bool readOnly() const;
+    // SQLite's PRAGMA integrity_check: "ok", or its list of problems.
+    std::string integrityCheck() const;
+
+    // --- takes ---------------------------------------------------------
+    // Probes every audio file (InputError naming the file if it cannot be
+    // read) and appends the takes to the end of the queue in one transaction.
+    // Refuses (InputError) a file already in the session. Returns the new ids.
+    std::vector<TakeId> addTakes(const std::vector<NewTake>& takes);
+    std::vector<Take> takes() const;  // queue order
+    Take take(TakeId id) const;
+    // Finds a take by its id ("3"), its line id ("ferry-003") or its audio
+    // file's name ("ferry-003.wav"); empty when nothing matches. Throws
+    // InputError when the key matches more than one take.
+    std::optional<TakeId> findTake(std::string_view key) const;
+    // Whether the take's audio file is where the session says (false after
+    // the folder was moved). Its marks stay either way.
+    bool audioExists(TakeId id) const;
+    // Points a take at a new audio file (probed first). Refuses (InputError)
+    // a file shorter than the end of one of the take's marks. Returns the
+    // previous stored path, for undo.
+    std::string relocateTake(TakeId id, const std::string& newAudioPath);
+    // For every take whose audio is missing, looks for a file of the same
+    // name in `folder` and relocates the take to it. Returns how many moved.
+    int relocateMissingTakes(const std::string& folder);
+    // Returns the previous status, for undo.
+    ReviewStatus setStatus(TakeId id, ReviewStatus status);
+    // `order` must list every take once. Returns the previous order, for undo.
+    std::vector<TakeId> setQueueOrder(const std::vector<TakeId>& order);
+    // Replaces all tiers of a take. Returns the previous rows, for undo.
+    std::vector<TierRow> setTiers(TakeId id, const std::vector<TierRow>& rows);
+    std::vector<TierRow> tiers(TakeId id) const;  // by tier name, then in the order given
+
+    // --- marks ---------------------------------------------------------
+    // The draft is validated against the take's duration (ParamError). When
+    // the take has a word tier, `words` is filled from it (see wordsCovered);
+    // otherwise the draft's words are kept. Measures are stored as given.
+    MarkEdit addMark(TakeId take, const MarkDraft& draft);
+    MarkEdit updateMark(MarkId id, const MarkDraft& draft);
+    MarkEdit deleteMark(MarkId id);
+    // Redo / undo an edit returned above. Refuses (Error, nothing changed)
+    // when the mark is no longer as the edit left it (changed elsewhere).
+    void apply(const MarkEdit& edit);
+    void revert(const MarkEdit& edit) { apply(edit.inverse()); }
+    Mark mark(MarkId id) const;
+    // All marks (of one take, when given), by take queue order then start time.
+    std::vector<Mark> marks(std::optional<TakeId> take = std::nullopt) const;
+
+    // --- suspects ------------------------------------------------------
+    // Replaces the suspects of a take (the scan writes a take's set at once).
+    void replaceSuspects(TakeId take, const std::vector<Suspect>& suspects);
+    std::vector<Suspect> suspects(std::optional<TakeId> take = std::nullopt) const;
+
+    struct Impl;
+
+private:
+    explicit Session(std::unique_ptr<Impl> impl);
+    std::unique_ptr<Impl> impl_;
+};
+
+// Words covered by [start, end] in a word tier: the non-empty labels of the
+// intervals of tier "words" (or "word") whose middle lies inside the span;
+// when no middle does (a span inside one word, or across a boundary), the
+// words the span overlaps. Space-separated, in time order; "" when there is
+// no word tier or no word is touched.
+std::string wordsCovered(const std::vector<TierRow>& tiers, double startSeconds, double endSeconds);
+
+// For tests and tools that exercise upgrades: creates a new session file at
+// an older schema version (1 … Session::kSchemaVersion), with no takes.
+void createSessionAtSchemaVersion(const std::string& path, int version);
+
+}  // namespace earmark

@@ -1,0 +1,108 @@
+#include "schema.hpp"
+
+#include "earmark/store/session.hpp"
+
+#include <iterator>
+
+namespace earmark::store {
+namespace {
+
+struct Migration {
+    int toVersion;
+    const char* sql;
+};
+
+// Each step takes the schema from toVersion − 1 to toVersion. Steps are never
+// edited once released: a change is a new step, so every older file upgrades
+// along the same path.
+constexpr Migration kMigrations[] = {
+    {1, R"sql(
+PRAGMA application_id = 1163021643; -- kApplicationId, 0x45524D4B "ERMK"
+CREATE TABLE session_info (
+    key   TEXT PRIMARY KEY,
+    value TEXT NOT NULL
+) WITHOUT ROWID;
+CREATE TABLE takes (
+    id          INTEGER PRIMARY KEY AUTOINCREMENT,
+    queue_pos   INTEGER NOT NULL,
+    audio_path  TEXT NOT NULL,
+    line_id     TEXT NOT NULL DEFAULT '',
+    text        TEXT NOT NULL DEFAULT '',
+    build       TEXT NOT NULL DEFAULT '',
+    status      TEXT NOT NULL DEFAULT 'unreviewed'
+                CHECK (status IN ('unreviewed', 'in-review', 'clean', 'has-marks', 'skipped')),
+    duration_s  REAL NOT NULL CHECK (duration_s >= 0),
+    sample_rate REAL NOT NULL,
+    channels    INTEGER NOT NULL,
+    added_utc   TEXT NOT NULL
+);
+CREATE INDEX takes_by_queue ON takes (queue_pos);
+CREATE TABLE tier_intervals (
+    take_id  INTEGER NOT NULL REFERENCES takes (id) ON DELETE CASCADE,
+    tier     TEXT NOT NULL,
+    position INTEGER NOT NULL,
+    start_s  REAL NOT NULL,
+    end_s    REAL NOT NULL CHECK (end_s >= start_s),
+    label    TEXT NOT NULL DEFAULT '',
+    PRIMARY KEY (take_id, tier, position)
+) WITHOUT ROWID;
+CREATE TABLE marks (
+    id          INTEGER PRIMARY KEY AUTOINCREMENT,
+    take_id     INTEGER NOT NULL REFERENCES takes (id) ON DELETE RESTRICT,
+    category    TEXT NOT NULL,
+    subtype     TEXT NOT NULL DEFAULT '',
+    severity    TEXT NOT NULL,
+    start_s     REAL NOT NULL CHECK (start_s >= 0),
+    end_s       REAL NOT NULL CHECK (end_s > start_s),
+    words       TEXT NOT NULL DEFAULT '',
+    note        TEXT NOT NULL DEFAULT '',
+    rater       TEXT NOT NULL DEFAULT '',
+    created_utc TEXT NOT NULL,
+    updated_utc TEXT NOT NULL,
+    measures    TEXT NOT NULL DEFAULT '{}'
+);
+CREATE INDEX marks_by_take ON marks (take_id, start_s);
+)sql"},
+    // Version 2: suspects raised by the scan, and when a take's review status last changed.
+    {2, R"sql(
+CREATE TABLE suspects (
+    id        INTEGER PRIMARY KEY,
+    take_id   INTEGER NOT NULL REFERENCES takes (id) ON DELETE CASCADE,
+    name      TEXT NOT NULL,
+    value     REAL NOT NULL,
+    threshold REAL NOT NULL,
+    start_s   REAL NOT NULL,
+    end_s     REAL NOT NULL CHECK (end_s >= start_s),
+    reason    TEXT NOT NULL DEFAULT ''
+);
+CREATE INDEX suspects_by_take ON suspects (take_id);
+ALTER TABLE takes ADD COLUMN status_utc TEXT NOT NULL DEFAULT '';
+)sql"},
+};
+
+static_assert(std::size(kMigrations) == Session::kSchemaVersion, "one migration step per schema version");
+
+int pragmaInt(const Db& db, const char* sql) {
+    Statement st(db, sql, "reading the schema version");
+    return st.step() ? static_cast<int>(st.integer(0)) : 0;
+}
+
+}  // namespace
+
+int userVersion(const Db& db) { return pragmaInt(db, "PRAGMA user_version"); }
+int applicationId(const Db& db) { return pragmaInt(db, "PRAGMA application_id"); }
+
+void migrate(const Db& db, int toVersion) {
+    WriteTransaction tx(db, "upgrading the session to schema " + std::to_string(toVersion));
+    // Read again under the write lock: another process may have upgraded the file meanwhile.
+    const int from = userVersion(db);
+    if (from >= toVersion) return;
+    for (const Migration& m : kMigrations)
+        if (m.toVersion > from && m.toVersion <= toVersion)
+            exec(db, m.sql, "upgrading the session to schema " + std::to_string(m.toVersion));
+    exec(db, ("PRAGMA user_version = " + std::to_string(toVersion)).c_str(),
+         "upgrading the session to schema " + std::to_string(toVersion));
+    tx.commit();
+}
+
+}  // namespace earmark::store

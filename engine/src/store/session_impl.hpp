@@ -1,0 +1,32 @@
+// Private state of a Session and row readers shared by its source files.
+#pragma once
+
+#include "earmark/store/session.hpp"
+#include "sqlite_db.hpp"
+
+#include <filesystem>
+#include <string>
+
+namespace earmark {
+
+struct Session::Impl {
+    store::Db db;
+    std::filesystem::path folder;  // absolute folder of the session file (audio paths are relative to it)
+    bool readOnly = false;
+
+    // Throws Error when the session was opened read-only.
+    void requireWritable(const std::string& doing) const;
+    // Audio path as stored: relative to `folder`, '/'-separated.
+    std::string storedAudioPath(const std::string& audioPath) const;
+    std::string resolveAudioPath(const std::string& stored) const;
+
+    Take readTake(TakeId id) const;          // InputError when missing
+    Mark readMark(MarkId id) const;          // InputError when missing
+    std::optional<Mark> findMark(MarkId id) const;
+    ReviewStatus readStatus(TakeId id) const;
+    void writeStatus(TakeId id, ReviewStatus status);
+    std::vector<TierRow> readTiers(TakeId id) const;
+    int countMarks(TakeId id) const;
+};
+
+}  // namespace earmark

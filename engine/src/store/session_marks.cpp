@@ -1,0 +1,201 @@
+// Marks: add, update, delete, and undo/redo of those edits.
+#include "session_impl.hpp"
+#include "earmark/store/utc_clock.hpp"
+
+#include "earmark/core/error.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+
+namespace earmark {
+namespace {
+
+using store::Statement;
+using store::WriteTransaction;
+
+constexpr const char* kMarkColumns =
+    "SELECT m.id, m.take_id, m.category, m.subtype, m.severity, m.start_s, m.end_s, m.words, m.note, "
+    "m.rater, m.created_utc, m.updated_utc, m.measures FROM marks m ";
+
+std::string measuresToJson(const MeasureSnapshot& measures) {
+    nlohmann::json j = nlohmann::json::object();
+    for (const auto& [name, value] : measures) j[name] = value;
+    return j.dump();  // shortest text that reads back as the same double
+}
+
+Mark markFromRow(const std::string& path, const Statement& st) {
+    Mark m;
+    m.id = st.integer(0);
+    m.takeId = st.integer(1);
+    const std::string what = "mark " + std::to_string(m.id);
+    const auto category = parseCategory(st.text(2));
+    if (!category) throw InputError(path, what + " has an unknown category '" + st.text(2) + "'");
+    m.category = *category;
+    m.subtype = st.text(3);
+    const auto severity = parseSeverity(st.text(4));
+    if (!severity) throw InputError(path, what + " has an unknown severity '" + st.text(4) + "'");
+    m.severity = *severity;
+    m.startSeconds = st.real(5);
+    m.endSeconds = st.real(6);
+    m.words = st.text(7);
+    m.note = st.text(8);
+    m.rater = st.text(9);
+    m.createdUtc = st.text(10);
+    m.updatedUtc = st.text(11);
+    const auto measures = nlohmann::json::parse(st.text(12), nullptr, false);
+    if (!measures.is_object()) throw InputError(path, what + " has damaged measures");
+    for (const auto& [name, value] : measures.items()) {
+        if (!value.is_number()) throw InputError(path, what + " has a non-numeric measure '" + name + "'");
+        m.measures[name] = value.get<double>();
+    }
+    return m;
+}
+
+// Binds the draft's fields to ?1 … ?9 (category … measures) in one order
+// shared by INSERT and UPDATE.
+void bindDraft(Statement& st, const MarkDraft& d) {
+    st.bind(1, categoryName(d.category)).bind(2, d.subtype).bind(3, severityName(d.severity));
+    st.bind(4, d.startSeconds).bind(5, d.endSeconds).bind(6, d.words).bind(7, d.note).bind(8, d.rater);
+    st.bind(9, measuresToJson(d.measures));
+}
+
+void insertMark(const store::Db& db, const Mark& m) {
+    Statement st(db,
+                 "INSERT INTO marks (category, subtype, severity, start_s, end_s, words, note, rater, measures, "
+                 "take_id, created_utc, updated_utc, id) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
+                 "?12, ?13)",
+                 "saving a mark");
+    bindDraft(st, m);
+    st.bind(10, m.takeId).bind(11, m.createdUtc).bind(12, m.updatedUtc);
+    if (m.id > 0) st.bind(13, m.id);  // a restored mark keeps its id; unbound = NULL = a new id
+    st.run();
+}
+
+void writeMark(const store::Db& db, const Mark& m) {
+    Statement st(db,
+                 "UPDATE marks SET category = ?1, subtype = ?2, severity = ?3, start_s = ?4, end_s = ?5, "
+                 "words = ?6, note = ?7, rater = ?8, measures = ?9, created_utc = ?10, updated_utc = ?11 "
+                 "WHERE id = ?12",
+                 "saving a mark");
+    bindDraft(st, m);
+    st.bind(10, m.createdUtc).bind(11, m.updatedUtc).bind(12, m.id).run();
+}
+
+void eraseMark(const store::Db& db, MarkId id) {
+    Statement st(db, "DELETE FROM marks WHERE id = ?1", "deleting a mark");
+    st.bind(1, id).run();
+}
+
+// The draft as it will be stored: words taken from the word tier when the
+// take has one, then validated.
+MarkDraft prepareDraft(const Session::Impl& impl, const Take& take, MarkDraft draft) {
+    const std::vector<TierRow> tiers = impl.readTiers(take.id);
+    const bool hasWordTier = std::any_of(tiers.begin(), tiers.end(), [](const TierRow& r) {
+        return r.tier == "words" || r.tier == "word";
+    });
+    if (hasWordTier) draft.words = wordsCovered(tiers, draft.startSeconds, draft.endSeconds);
+    draft.validate(take.durationSeconds);
+    return draft;
+}
+
+}  // namespace
+
+std::optional<Mark> Session::Impl::findMark(MarkId id) const {
+    Statement st(db, std::string(kMarkColumns) + "WHERE m.id = ?1", "reading a mark");
+    st.bind(1, id);
+    if (!st.step()) return std::nullopt;
+    return markFromRow(db.path, st);
+}
+
+Mark Session::Impl::readMark(MarkId id) const {
+    auto m = findMark(id);
+    if (!m) throw InputError(db.path, "has no mark with id " + std::to_string(id));
+    return *m;
+}
+
+MarkEdit Session::addMark(TakeId takeId, const MarkDraft& draft) {
+    impl_->requireWritable("add a mark");
+    WriteTransaction tx(impl_->db, "adding a mark");
+    const Take take = impl_->readTake(takeId);
+    Mark m;
+    static_cast<MarkDraft&>(m) = prepareDraft(*impl_, take, draft);
+    m.takeId = takeId;
+    m.createdUtc = m.updatedUtc = store::utcNowIso8601();
+    insertMark(impl_->db, m);
+    m.id = sqlite3_last_insert_rowid(impl_->db.get());
+    MarkEdit edit{std::nullopt, m, takeId, take.status, ReviewStatus::HasMarks};
+    if (edit.statusBefore != edit.statusAfter) impl_->writeStatus(takeId, edit.statusAfter);
+    tx.commit();
+    return edit;
+}
+
+MarkEdit Session::updateMark(MarkId id, const MarkDraft& draft) {
+    impl_->requireWritable("change a mark");
+    WriteTransaction tx(impl_->db, "changing a mark");
+    const Mark before = impl_->readMark(id);
+    const Take take = impl_->readTake(before.takeId);
+    Mark after = before;
+    static_cast<MarkDraft&>(after) = prepareDraft(*impl_, take, draft);
+    after.updatedUtc = store::utcNowIso8601();
+    writeMark(impl_->db, after);
+    tx.commit();
+    return {before, after, take.id, take.status, take.status};
+}
+
+MarkEdit Session::deleteMark(MarkId id) {
+    impl_->requireWritable("delete a mark");
+    WriteTransaction tx(impl_->db, "deleting a mark");
+    const Mark before = impl_->readMark(id);
+    const ReviewStatus status = impl_->readStatus(before.takeId);
+    eraseMark(impl_->db, id);
+    MarkEdit edit{before, std::nullopt, before.takeId, status, status};
+    if (status == ReviewStatus::HasMarks && impl_->countMarks(before.takeId) == 0) {
+        edit.statusAfter = ReviewStatus::InReview;
+        impl_->writeStatus(before.takeId, edit.statusAfter);
+    }
+    tx.commit();
+    return edit;
+}
+
+void Session::apply(const MarkEdit& edit) {
+    impl_->requireWritable("undo or redo a mark change");
+    const MarkId id = edit.markId();
+    if (edit.before && edit.after && (edit.before->id != edit.after->id || edit.before->takeId != edit.after->takeId))
+        throw ParamError("MarkEdit", "before and after must be the same mark of the same take");
+    WriteTransaction tx(impl_->db, "undoing or redoing a mark change");
+    const Take take = impl_->readTake(edit.takeId);
+    if (impl_->findMark(id) != edit.before)
+        throw Error(impl_->db.path, "mark " + std::to_string(id) +
+                                        " was changed elsewhere since; this change cannot be undone or redone");
+    if (edit.after) {
+        if (edit.after->takeId != edit.takeId) throw ParamError("MarkEdit.takeId", "does not match the mark");
+        edit.after->validate(take.durationSeconds);
+        if (edit.before) writeMark(impl_->db, *edit.after);
+        else insertMark(impl_->db, *edit.after);
+    } else {
+        eraseMark(impl_->db, id);
+    }
+    // Only restore the status this edit set; a status chosen since is kept.
+    if (edit.statusBefore != edit.statusAfter && take.status == edit.statusBefore)
+        impl_->writeStatus(edit.takeId, edit.statusAfter);
+    tx.commit();
+}
+
+Mark Session::mark(MarkId id) const { return impl_->readMark(id); }
+
+std::vector<Mark> Session::marks(std::optional<TakeId> take) const {
+    const std::string order = "ORDER BY (SELECT queue_pos FROM takes t WHERE t.id = m.take_id), m.take_id, "
+                              "m.start_s, m.id";
+    Statement st(impl_->db, std::string(kMarkColumns) + (take ? "WHERE m.take_id = ?1 " : "") + order,
+                 "listing marks");
+    if (take) {
+        impl_->readTake(*take);
+        st.bind(1, *take);
+    }
+    std::vector<Mark> out;
+    while (st.step()) out.push_back(markFromRow(impl_->db.path, st));
+    return out;
+}
+
+}  // namespace earmark
