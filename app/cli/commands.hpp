@@ -9,5 +9,11 @@
 namespace earmark::cli {
 
 int runAnalyze(const std::vector<std::string>& args);
+int runSession(const std::vector<std::string>& args);
+int runMark(const std::vector<std::string>& args);
+int runExport(const std::vector<std::string>& args);
+int runScan(const std::vector<std::string>& args);
+int runMerge(const std::vector<std::string>& args);
+int runAlign(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

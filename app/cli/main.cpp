@@ -26,6 +26,12 @@ const std::map<std::string, Subcommand>& subcommands() {
     static const std::map<std::string, Subcommand> table = {
         {"analyze", {earmark::cli::runAnalyze,
                      "measure one take: F0 (YIN), energy, mel spectrogram, loudness"}},
+        {"session", {earmark::cli::runSession, "create a listening session, add takes, list the queue"}},
+        {"mark", {earmark::cli::runMark, "add, list or delete marks (defects pinned on a span of a take)"}},
+        {"export", {earmark::cli::runExport, "write a session's marks as CSV, JSON or an example bundle"}},
+        {"scan", {earmark::cli::runScan, "measure many takes, raise suspects, rank them for listening"}},
+        {"merge", {earmark::cli::runMerge, "combine the outputs of sharded scans into one ranking"}},
+        {"align", {earmark::cli::runAlign, "word and phone timings of a take from its text (espeak-ng + DTW)"}},
     };
     return table;
 }

@@ -1,0 +1,56 @@
+// earmark-cli merge: combine the outputs of sharded scans into one ranking.
+#include "arguments.hpp"
+#include "commands.hpp"
+#include "exit_codes.hpp"
+#include "output_file.hpp"
+
+#include "earmark/scan/scan_report.hpp"
+#include "earmark/scan/scan_session.hpp"
+
+#include <cstdio>
+
+namespace earmark::cli {
+namespace {
+
+// writeTextOutput ends the text with '\n'; drop the CSV's own final LF so the
+// last record still ends in CRLF (RFC 4180) and no blank line follows.
+std::string csvForOutput(std::string csv) {
+    if (!csv.empty() && csv.back() == '\n') csv.pop_back();
+    return csv;
+}
+
+}  // namespace
+
+int runMerge(const std::vector<std::string>& argv) {
+    Arguments args("merge", "OUT PARTS...   (OUT: the merged CSV, - = stdout; PARTS: scan outputs, CSV or JSON)",
+                   {
+                       {"json", "FILE|-", "", "also write the merged ranking as JSON"},
+                       {"rules", "FILE", "built in", "thresholds as JSON; use the scan's rules file"},
+                       {"session", "FILE", "", "also write the merged queue into this session file"},
+                   });
+    args.parse(argv);
+    if (args.helpRequested()) {
+        std::fputs(args.helpText().c_str(), stdout);
+        return kExitOk;
+    }
+    const auto& pos = args.positionals();
+    if (pos.size() < 2) throw UsageError("expects OUT and at least one PART (see earmark-cli merge --help)");
+    const ScanRules rules = args.value("rules") ? loadRules(*args.value("rules")) : ScanRules{};
+    std::vector<ScanReport> parts;
+    for (std::size_t i = 1; i < pos.size(); ++i) parts.push_back(readReport(pos[i]));
+    const ScanReport merged = mergeReports(std::move(parts), rules);
+    const auto json = args.value("json");
+    if (json && *json == "-" && pos[0] == "-") throw UsageError("OUT and --json cannot both be stdout");
+    writeTextOutput(pos[0], csvForOutput(reportToCsv(merged)));
+    if (json) writeTextOutput(*json, reportToJson(merged, rules));
+    std::fprintf(stderr, "merge: %zu take(s) from %zu part(s)%s\n", merged.rows.size(), pos.size() - 1,
+                 merged.partial ? " (some parts were partial)" : "");
+    if (auto session = args.value("session")) {
+        const auto s = writeScanSession(*session, merged);
+        std::fprintf(stderr, "merge: session %s: %d take(s) added, %d updated, %d unreadable left out\n",
+                     session->c_str(), s.added, s.updated, s.skipped);
+    }
+    return kExitOk;
+}
+
+}  // namespace earmark::cli

@@ -1,0 +1,27 @@
+// The measures of one time span, as a value: the snapshot a mark carries.
+#pragma once
+
+#include "earmark/prosody/prosody_context.hpp"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace earmark {
+
+struct SpanMeasures {
+    double startS = 0.0, endS = 0.0, durationS = 0.0;  // clamped to the take
+    int wordCount = 0;                   // words overlapping the span
+    std::string words;                   // their text joined by spaces
+    std::optional<double> f0MeanHz, f0MinHz, f0MaxHz;
+    std::optional<double> f0RangeSt;     // 12·log2(max/min) over voiced frames
+    std::optional<double> f0SlopeStPerS; // least-squares slope, semitones per second
+    std::optional<double> energyMeanDb;  // 10·log10(mean power), dBFS
+    std::optional<double> syllablesPerS; // ProsodyContext::syllablesIn / duration
+    std::optional<double> pauseS;        // length of the pause the span lies in (≥ 80 % inside it)
+};
+
+// Throws ParamError("measureSpan.endS") when endS <= startS after clamping to the take.
+SpanMeasures measureSpan(const ProsodyContext& context, double startS, double endS);
+
+}  // namespace earmark

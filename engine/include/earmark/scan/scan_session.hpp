@@ -1,0 +1,27 @@
+// Writing a scan's ranked queue into a listening session (earmark/store).
+#pragma once
+
+#include "earmark/scan/scan_report.hpp"
+
+#include <string>
+
+namespace earmark {
+
+struct SessionWriteSummary {
+    int added = 0;     // takes new to the session
+    int updated = 0;   // takes already there (matched by audio file), suspects replaced
+    int skipped = 0;   // failed rows (unreadable audio cannot join a queue)
+};
+
+// Creates the session file if it does not exist, else opens it. Adds every
+// measured take not yet in it (matched by the audio file's canonical path),
+// replaces each scanned take's suspects, and puts the scanned takes at the
+// front of the queue in ranking order (other takes keep their order behind
+// them), each step one transaction. `texts` supplies the script line per id
+// (may be empty). Suspects read back from a CSV report without values are
+// stored with value and threshold 0 and the whole take as span.
+// Throws the session's errors (InputError, ParamError, Error).
+SessionWriteSummary writeScanSession(const std::string& sessionPath, const ScanReport& report,
+                                     const std::vector<ScanItem>& items = {});
+
+}  // namespace earmark

@@ -1,0 +1,201 @@
+#include "earmark/prosody/rules.hpp"
+
+#include "earmark/core/error.hpp"
+
+#include <nlohmann/json.hpp>
+
+#include <cmath>
+#include <fstream>
+#include <sstream>
+#include <variant>
+
+namespace earmark {
+namespace {
+
+using Json = nlohmann::ordered_json;
+
+// One key of the rules document, bound to a field of a ScanRules.
+struct Field {
+    const char* key;
+    std::variant<bool*, double*, int*, std::int64_t*> target;
+};
+struct Section {
+    const char* name;
+    std::vector<Field> fields;
+};
+
+std::vector<Field> switchFields(RuleSwitch& r) { return {{"enabled", &r.enabled}, {"weight", &r.weight}}; }
+
+std::vector<Field> with(std::vector<Field> a, std::vector<Field> b) {
+    a.insert(a.end(), b.begin(), b.end());
+    return a;
+}
+
+// The document layout: the single place that names sections and keys.
+std::vector<Section> layout(ScanRules& r) {
+    return {
+        {"measure", {{"min_pause_s", &r.pause.minPauseSeconds},
+                     {"silence_below_speech_db", &r.pause.silenceBelowSpeechDb},
+                     {"absolute_silence_dbfs", &r.pause.absoluteSilenceDb},
+                     {"min_speech_s", &r.pause.minSpeechSeconds},
+                     {"speech_level_percentile", &r.pause.speechLevelPercentile}}},
+        {"score", {{"cap_per_suspect", &r.scoreCapPerSuspect}}},
+        {"flat", with(switchFields(r.flat), {{"max_range_st", &r.flat.maxRangeSt},
+                                             {"min_words", &r.flat.minWords},
+                                             {"min_seconds_without_words", &r.flat.minSecondsWithoutWords}})},
+        {"pitch_jump", with(switchFields(r.pitchJump), {{"min_step_st", &r.pitchJump.minStepSt}})},
+        {"pause_too_long", with(switchFields(r.pauseTooLong), {{"max_s", &r.pauseTooLong.maxSeconds}})},
+        {"pause_missing", with(switchFields(r.pauseMissing), {{"min_after_comma_s", &r.pauseMissing.minAfterCommaS},
+                                                              {"min_after_stop_s", &r.pauseMissing.minAfterStopS}})},
+        {"rushed", with(switchFields(r.rushed), {{"max_syllables_per_s", &r.rushed.limitSyllablesPerS},
+                                                 {"min_speech_s", &r.rushed.minSpeechSeconds}})},
+        {"dragged", with(switchFields(r.dragged), {{"min_syllables_per_s", &r.dragged.limitSyllablesPerS},
+                                                   {"min_speech_s", &r.dragged.minSpeechSeconds}})},
+        {"clipping", with(switchFields(r.clipping), {{"max_clipped_samples", &r.clipping.maxClippedSamples}})},
+        {"truncation", with(switchFields(r.truncation), {{"tail_s", &r.truncation.tailSeconds},
+                                                         {"max_tail_db", &r.truncation.maxTailDb},
+                                                         {"voiced_tail", &r.truncation.voicedTail}})},
+        {"leading_silence", with(switchFields(r.leadingSilence), {{"max_s", &r.leadingSilence.maxSeconds}})},
+        {"trailing_silence", with(switchFields(r.trailingSilence), {{"max_s", &r.trailingSilence.maxSeconds}})},
+        {"loudness", with(switchFields(r.loudness), {{"max_deviation_lu", &r.loudness.maxDeviationLu},
+                                                     {"min_takes", &r.loudness.minTakes}})},
+        {"dc_offset", with(switchFields(r.dcOffset), {{"max_abs", &r.dcOffset.maxAbs}})},
+    };
+}
+
+std::string keyPath(const char* section, const std::string& key) { return std::string("rules.") + section + "." + key; }
+
+void readField(const Field& f, const Json& v, const std::string& path) {
+    std::visit(
+        [&](auto* p) {
+            using T = std::remove_pointer_t<decltype(p)>;
+            if constexpr (std::is_same_v<T, bool>) {
+                if (!v.is_boolean()) throw ParamError(path, "expects true or false");
+                *p = v.get<bool>();
+            } else if constexpr (std::is_same_v<T, double>) {
+                if (!v.is_number()) throw ParamError(path, "expects a number");
+                *p = v.get<double>();
+            } else {
+                if (!v.is_number_integer()) throw ParamError(path, "expects a whole number");
+                *p = v.get<T>();
+            }
+        },
+        f.target);
+}
+
+void requireFinite(double v, const std::string& path) {
+    if (!std::isfinite(v)) throw ParamError(path, "must be finite");
+}
+
+}  // namespace
+
+ProsodyParams ScanRules::prosodyParams() const {
+    ProsodyParams p;
+    p.pause = pause;
+    return p;
+}
+
+void ScanRules::validate() const {
+    try {
+        pause.validate();
+    } catch (const ParamError& e) {
+        // Name the key of the rules document rather than the struct field.
+        const std::string& s = e.subject();
+        const std::string field = s.substr(s.find('.') + 1);
+        const char* key = field == "minPauseSeconds"        ? "min_pause_s"
+                          : field == "silenceBelowSpeechDb" ? "silence_below_speech_db"
+                          : field == "absoluteSilenceDb"    ? "absolute_silence_dbfs"
+                          : field == "minSpeechSeconds"     ? "min_speech_s"
+                                                            : "speech_level_percentile";
+        throw ParamError(keyPath("measure", key), e.problem());
+    }
+    if (!(scoreCapPerSuspect >= 1)) throw ParamError("rules.score.cap_per_suspect", "must be >= 1");
+    ScanRules self = *this;  // layout() binds pointers to a mutable object; this copy is only read
+    for (const auto& section : layout(self))
+        for (const auto& f : section.fields)
+            if (auto d = std::get_if<double*>(&f.target)) requireFinite(**d, keyPath(section.name, f.key));
+    auto positive = [](double v, const char* section, const char* key) {
+        if (!(v > 0)) throw ParamError(keyPath(section, key), "must be positive");
+    };
+    auto nonNegative = [](double v, const char* section, const char* key) {
+        if (!(v >= 0)) throw ParamError(keyPath(section, key), "must be >= 0");
+    };
+    const std::pair<const char*, const RuleSwitch*> switches[] = {
+        {"flat", &flat}, {"pitch_jump", &pitchJump}, {"pause_too_long", &pauseTooLong},
+        {"pause_missing", &pauseMissing}, {"rushed", &rushed}, {"dragged", &dragged},
+        {"clipping", &clipping}, {"truncation", &truncation}, {"leading_silence", &leadingSilence},
+        {"trailing_silence", &trailingSilence}, {"loudness", &loudness}, {"dc_offset", &dcOffset}};
+    for (const auto& [name, sw] : switches) nonNegative(sw->weight, name, "weight");
+    positive(flat.maxRangeSt, "flat", "max_range_st");
+    if (flat.minWords < 2) throw ParamError("rules.flat.min_words", "must be >= 2");
+    positive(flat.minSecondsWithoutWords, "flat", "min_seconds_without_words");
+    positive(pitchJump.minStepSt, "pitch_jump", "min_step_st");
+    positive(pauseTooLong.maxSeconds, "pause_too_long", "max_s");
+    positive(pauseMissing.minAfterCommaS, "pause_missing", "min_after_comma_s");
+    positive(pauseMissing.minAfterStopS, "pause_missing", "min_after_stop_s");
+    positive(rushed.limitSyllablesPerS, "rushed", "max_syllables_per_s");
+    nonNegative(rushed.minSpeechSeconds, "rushed", "min_speech_s");
+    positive(dragged.limitSyllablesPerS, "dragged", "min_syllables_per_s");
+    nonNegative(dragged.minSpeechSeconds, "dragged", "min_speech_s");
+    if (dragged.limitSyllablesPerS >= rushed.limitSyllablesPerS)
+        throw ParamError("rules.dragged.min_syllables_per_s", "must be below rules.rushed.max_syllables_per_s");
+    if (clipping.maxClippedSamples < 0) throw ParamError("rules.clipping.max_clipped_samples", "must be >= 0");
+    positive(truncation.tailSeconds, "truncation", "tail_s");
+    if (!(truncation.maxTailDb < 0)) throw ParamError("rules.truncation.max_tail_db", "must be negative (dB below the speech level)");
+    positive(leadingSilence.maxSeconds, "leading_silence", "max_s");
+    positive(trailingSilence.maxSeconds, "trailing_silence", "max_s");
+    positive(loudness.maxDeviationLu, "loudness", "max_deviation_lu");
+    if (loudness.minTakes < 2) throw ParamError("rules.loudness.min_takes", "must be >= 2");
+    positive(dcOffset.maxAbs, "dc_offset", "max_abs");
+}
+
+ScanRules parseRules(const std::string& json, const std::string& origin) {
+    Json doc;
+    try {
+        doc = Json::parse(json);
+    } catch (const Json::parse_error& e) {
+        throw InputError(origin, std::string("not valid JSON: ") + e.what());
+    }
+    if (!doc.is_object()) throw ParamError("rules", "the document must be a JSON object");
+    ScanRules rules;
+    const auto sections = layout(rules);
+    for (const auto& [name, body] : doc.items()) {
+        if (name == "comment") continue;  // free text for the file's author
+        const Section* section = nullptr;
+        for (const auto& s : sections)
+            if (name == s.name) section = &s;
+        if (!section) throw ParamError("rules." + name, "unknown section");
+        if (!body.is_object()) throw ParamError("rules." + name, "expects an object");
+        for (const auto& [key, value] : body.items()) {
+            const Field* field = nullptr;
+            for (const auto& f : section->fields)
+                if (key == f.key) field = &f;
+            if (!field) throw ParamError(keyPath(section->name, key), "unknown key");
+            readField(*field, value, keyPath(section->name, key));
+        }
+    }
+    rules.validate();
+    return rules;
+}
+
+ScanRules loadRules(const std::string& path) {
+    std::ifstream in(path, std::ios::binary);
+    if (!in) throw InputError(path, "cannot be read");
+    std::ostringstream text;
+    text << in.rdbuf();
+    return parseRules(text.str(), path);
+}
+
+std::string rulesToJson(const ScanRules& rules) {
+    ScanRules copy = rules;
+    Json doc = Json::object();
+    for (const auto& section : layout(copy)) {
+        Json body = Json::object();
+        for (const auto& f : section.fields)
+            std::visit([&](auto* p) { body[f.key] = *p; }, f.target);
+        doc[section.name] = body;
+    }
+    return doc.dump(2);
+}
+
+}  // namespace earmark

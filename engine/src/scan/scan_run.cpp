@@ -1,0 +1,141 @@
+#include "earmark/scan/scan_run.hpp"
+
+#include "earmark/core/error.hpp"
+#include "earmark/prosody/take_measures.hpp"
+#include "earmark/tiers/timings_file.hpp"
+
+#include <algorithm>
+#include <atomic>
+#include <chrono>
+#include <condition_variable>
+#include <mutex>
+#include <thread>
+
+namespace earmark {
+
+AnalysisParams ScanSettings::defaultAnalysis() {
+    AnalysisParams p;
+    p.tracks.mel = false;
+    return p;
+}
+
+ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress progress) {
+    ScanRow row;
+    row.index = item.index;
+    row.id = item.id;
+    row.file = item.audioPath;
+    try {
+        const TakeAnalysis analysis = analyseFile(item.audioPath, settings.analysis, progress);
+        Transcript transcript;
+        transcript.text = item.text;
+        if (!item.timingsPath.empty()) {
+            try {
+                TimingsReadOptions options;
+                options.takeDurationS = analysis.signal.durationSeconds();
+                transcript = transcriptFrom(loadTimings(item.timingsPath, options).tiers, item.text);
+            } catch (const Error& e) {
+                row.status = std::string("ok; timings ignored: ") + e.what();
+            }
+        }
+        const auto context =
+            ProsodyContext::fromAnalysis(analysis, std::move(transcript), settings.rules.prosodyParams());
+        row.measures = measureTake(context, measureLevels(analysis));
+        row.suspects = findSuspects(context, *row.measures, settings.rules);
+    } catch (const Cancelled&) {
+        throw;
+    } catch (const std::bad_alloc&) {
+        throw;  // not a fault of this take: stop the scan
+    } catch (const std::exception& e) {
+        // A bad file is reported in its row; the scan goes on.
+        row.failed = true;
+        row.status = std::string("error: ") + e.what();
+        row.measures.reset();
+        row.suspects.clear();
+        return row;
+    }
+    row.takeScore = totalScore(row.suspects, settings.rules);
+    row.score = row.takeScore;
+    return row;
+}
+
+ScanRun runScan(const std::vector<ScanItem>& items, const ScanSettings& settings, const ScanObserver& observer,
+                double intervalSeconds) {
+    settings.rules.validate();
+    if (settings.jobs < 0) throw ParamError("ScanSettings.jobs", "must be >= 0 (0 = all cores)");
+    const int jobs = std::max(1, std::min<int>(settings.jobs > 0 ? settings.jobs
+                                                                 : static_cast<int>(std::thread::hardware_concurrency()),
+                                               static_cast<int>(std::max<std::size_t>(items.size(), 1))));
+    std::vector<std::optional<ScanRow>> slots(items.size());
+    std::atomic<std::size_t> next{0};
+    std::atomic<bool> stop{false};
+    std::mutex mutex;
+    std::condition_variable wake;
+    std::size_t done = 0, running = static_cast<std::size_t>(jobs);
+    double audioSeconds = 0.0;
+    std::exception_ptr failure;
+
+    auto worker = [&] {
+        const Progress progress([&](double) { return !stop.load(std::memory_order_relaxed); });
+        try {
+            for (;;) {
+                if (stop.load()) break;
+                const std::size_t i = next.fetch_add(1);
+                if (i >= items.size()) break;
+                ScanRow row = scanTake(items[i], settings, progress);
+                const double seconds = row.measures ? row.measures->durationS : 0.0;
+                slots[i] = std::move(row);
+                std::lock_guard lock(mutex);
+                ++done;
+                audioSeconds += seconds;
+            }
+        } catch (const Cancelled&) {
+            // Stop asked: the take in hand is dropped.
+        } catch (...) {
+            std::lock_guard lock(mutex);
+            if (!failure) failure = std::current_exception();
+            stop = true;
+        }
+        std::lock_guard lock(mutex);
+        --running;
+        wake.notify_all();
+    };
+    const auto start = std::chrono::steady_clock::now();
+    std::vector<std::thread> pool;
+    pool.reserve(static_cast<std::size_t>(jobs));
+    for (int j = 0; j < jobs; ++j) pool.emplace_back(worker);
+
+    auto snapshot = [&] {
+        ScanProgress p;
+        p.done = done;
+        p.total = items.size();
+        p.audioSeconds = audioSeconds;
+        p.elapsedSeconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+        return p;
+    };
+    {
+        std::unique_lock lock(mutex);
+        const auto interval = std::chrono::duration<double>(std::max(0.01, intervalSeconds));
+        while (running > 0) {
+            wake.wait_for(lock, interval);
+            if (observer && running > 0) {
+                const ScanProgress p = snapshot();
+                lock.unlock();
+                const bool goOn = observer(p);
+                lock.lock();
+                if (!goOn) stop = true;
+            }
+        }
+    }
+    for (auto& t : pool) t.join();
+    if (failure) std::rethrow_exception(failure);
+
+    ScanRun run;
+    run.total = items.size();
+    for (auto& slot : slots)
+        if (slot) run.rows.push_back(std::move(*slot));
+    run.partial = run.rows.size() < items.size();
+    if (observer) observer(snapshot());
+    return run;
+}
+
+}  // namespace earmark

@@ -1,0 +1,76 @@
+#include "earmark/scan/scan_session.hpp"
+
+#include "earmark/store/session.hpp"
+
+#include <cmath>
+#include <filesystem>
+#include <map>
+#include <set>
+
+namespace earmark {
+namespace fs = std::filesystem;
+namespace {
+
+std::string canonical(const std::string& path) {
+    std::error_code ec;
+    auto p = fs::weakly_canonical(fs::absolute(path), ec);
+    return ec ? path : p.string();
+}
+
+Suspect toStored(const TakeSuspect& s, double durationS) {
+    Suspect out;
+    out.name = suspectName(s.kind);
+    out.value = std::isfinite(s.value) ? s.value : 0.0;
+    out.threshold = std::isfinite(s.threshold) ? s.threshold : 0.0;
+    const bool span = std::isfinite(s.startS) && std::isfinite(s.endS) && s.endS >= s.startS;
+    out.startSeconds = span ? std::max(0.0, s.startS) : 0.0;
+    out.endSeconds = span ? std::min(s.endS, durationS) : durationS;
+    if (out.endSeconds < out.startSeconds) out.endSeconds = out.startSeconds;
+    out.reason = s.reason;
+    return out;
+}
+
+}  // namespace
+
+SessionWriteSummary writeScanSession(const std::string& sessionPath, const ScanReport& report,
+                                     const std::vector<ScanItem>& items) {
+    SessionWriteSummary summary;
+    Session session = fs::exists(sessionPath) ? Session::open(sessionPath) : Session::create(sessionPath);
+    std::map<std::string, std::string> textOf;
+    for (const auto& item : items) textOf[item.id] = item.text;
+
+    std::map<std::string, TakeId> byPath;
+    for (const auto& t : session.takes()) byPath[canonical(t.audioPath)] = t.id;
+
+    std::vector<NewTake> fresh;
+    for (const auto& row : report.rows) {
+        if (row.failed) {
+            ++summary.skipped;
+            continue;
+        }
+        if (byPath.count(canonical(row.file))) continue;
+        fresh.push_back({row.file, row.id, textOf[row.id], ""});
+    }
+    const auto ids = session.addTakes(fresh);
+    summary.added = static_cast<int>(ids.size());
+    for (std::size_t i = 0; i < fresh.size(); ++i) byPath[canonical(fresh[i].audioPath)] = ids[i];
+
+    std::vector<TakeId> order;
+    std::set<TakeId> placed;
+    for (const auto& row : report.rows) {
+        if (row.failed) continue;
+        const TakeId id = byPath.at(canonical(row.file));
+        const double duration = session.take(id).durationSeconds;
+        std::vector<Suspect> stored;
+        for (const auto& s : row.suspects) stored.push_back(toStored(s, duration));
+        session.replaceSuspects(id, stored);
+        if (placed.insert(id).second) order.push_back(id);
+    }
+    summary.updated = static_cast<int>(order.size()) - summary.added;
+    for (const auto& t : session.takes())
+        if (!placed.count(t.id)) order.push_back(t.id);
+    session.setQueueOrder(order);
+    return summary;
+}
+
+}  // namespace earmark
