@@ -1,0 +1,116 @@
+// earmark [AUDIO… | TAKES.csv] [--screenshot PATH [--size WxH]] [--view START:END] [--select START:END]
+//
+// With --screenshot the window loads the first take, waits for its analysis,
+// writes the window to PATH as PNG and exits: 0 on success, 1 when the take
+// could not be shown or the image not written, 2 for bad arguments.
+#include "main_window.hpp"
+
+#include "earmark/widgets/take_list.hpp"
+
+#include <QApplication>
+#include <QCommandLineParser>
+#include <QRegularExpression>
+#include <QSettings>
+#include <QTemporaryDir>
+#include <QTimer>
+
+#include <cstdio>
+
+namespace {
+
+int fail(const QString& message, int code) {
+    std::fprintf(stderr, "earmark: %s\n", qPrintable(message));
+    return code;
+}
+
+}  // namespace
+
+int main(int argc, char** argv) {
+    QApplication app(argc, argv);
+    QApplication::setOrganizationName(QStringLiteral("Earmark"));
+    QApplication::setApplicationName(QStringLiteral("earmark"));
+    QApplication::setApplicationVersion(QStringLiteral("0.1.0"));
+    QApplication::setDesktopFileName(QStringLiteral("earmark"));
+
+    QCommandLineParser parser;
+    parser.setApplicationDescription(QStringLiteral("Earmark: look at, listen to and measure speech takes."));
+    parser.addHelpOption();
+    parser.addVersionOption();
+    parser.addPositionalArgument(QStringLiteral("takes"), QStringLiteral("Audio files, or a CSV take list (id,audio,text,…)."),
+                                 QStringLiteral("[AUDIO… | TAKES.csv]"));
+    const QCommandLineOption screenshot(QStringLiteral("screenshot"),
+                                        QStringLiteral("Render the window to PATH (PNG) once the take is analysed, then exit."),
+                                        QStringLiteral("PATH"));
+    const QCommandLineOption size(QStringLiteral("size"), QStringLiteral("Window size for --screenshot (default 1600x900)."),
+                                  QStringLiteral("WxH"), QStringLiteral("1600x900"));
+    const QCommandLineOption view(QStringLiteral("view"), QStringLiteral("Visible range in seconds, e.g. 0.5:1.75."),
+                                  QStringLiteral("START:END"));
+    const QCommandLineOption select(QStringLiteral("select"), QStringLiteral("Selection in seconds, e.g. 1.2:1.6."),
+                                    QStringLiteral("START:END"));
+    parser.addOptions({screenshot, size, view, select});
+    parser.process(app);
+
+    const QRegularExpression sizeRe(QStringLiteral("^(\\d+)x(\\d+)$"));
+    const auto sizeMatch = sizeRe.match(parser.value(size));
+    if (!sizeMatch.hasMatch()) return fail(QStringLiteral("--size wants WxH, e.g. 1600x900"), 2);
+    const QSize windowSize(sizeMatch.captured(1).toInt(), sizeMatch.captured(2).toInt());
+    if (windowSize.width() < 200 || windowSize.height() < 150 || windowSize.width() > 10000 || windowSize.height() > 10000)
+        return fail(QStringLiteral("--size must be between 200x150 and 10000x10000"), 2);
+
+    auto parseSpan = [&](const QCommandLineOption& option) -> std::optional<earmark::widgets::TimeRange> {
+        const QStringList parts = parser.value(option).split(':');
+        bool ok1 = false, ok2 = false;
+        const double a = parts.value(0).toDouble(&ok1), b = parts.value(1).toDouble(&ok2);
+        if (parts.size() != 2 || !ok1 || !ok2 || !(b > a) || a < 0) return std::nullopt;
+        return earmark::widgets::TimeRange{a, b};
+    };
+    std::optional<earmark::widgets::TimeRange> range, selection;
+    if (parser.isSet(view) && !(range = parseSpan(view)))
+        return fail(QStringLiteral("--view wants START:END in seconds with END > START >= 0"), 2);
+    if (parser.isSet(select) && !(selection = parseSpan(select)))
+        return fail(QStringLiteral("--select wants START:END in seconds with END > START >= 0"), 2);
+
+    std::vector<earmark::widgets::TakeEntry> takes;
+    try {
+        takes = earmark::widgets::takesFromArguments(parser.positionalArguments());
+    } catch (const std::exception& e) {
+        return fail(QString::fromLocal8Bit(e.what()), 1);
+    }
+
+    const bool shooting = parser.isSet(screenshot);
+    // Screenshots do not depend on (or change) the user's saved settings.
+    QTemporaryDir settingsDir;
+    if (shooting) {
+        if (takes.empty()) return fail(QStringLiteral("--screenshot needs a take to show"), 2);
+        QSettings::setDefaultFormat(QSettings::IniFormat);
+        QSettings::setPath(QSettings::IniFormat, QSettings::UserScope, settingsDir.path());
+    }
+
+    earmark::gui::MainWindow window;
+    if (range || selection) window.setInitialView(range, selection);
+    int exitCode = 0;
+    if (shooting) {
+        const QString path = parser.value(screenshot);
+        QObject::connect(&window, &earmark::gui::MainWindow::takeSettled, &app,
+                         [&](bool ok, const QString& message) {
+                             // Let queued plot replots and layout run before grabbing.
+                             QTimer::singleShot(50, &app, [&, ok, message] {
+                                 if (!ok) fail(message, 1);
+                                 if (!window.grab().save(path, "PNG")) {
+                                     fail(QStringLiteral("%1: cannot write the image").arg(path), 1);
+                                     exitCode = 1;
+                                 } else {
+                                     exitCode = ok ? 0 : 1;
+                                 }
+                                 window.close();
+                                 app.quit();
+                             });
+                         });
+        window.resize(windowSize);
+    }
+    window.show();
+    if (shooting) window.resize(windowSize);
+    window.openTakes(takes);
+    const int code = app.exec();
+    return shooting ? exitCode : code;
+}

@@ -1,0 +1,305 @@
+#include "main_window.hpp"
+
+#include "earmark/widgets/audio_player.hpp"
+#include "earmark/widgets/energy_lane.hpp"
+#include "earmark/widgets/help_overlay.hpp"
+#include "earmark/widgets/hover_readout.hpp"
+#include "earmark/widgets/lane_stack.hpp"
+#include "earmark/widgets/overview_lane.hpp"
+#include "earmark/widgets/pitch_lane.hpp"
+#include "earmark/widgets/settings_dialog.hpp"
+#include "earmark/widgets/spectrogram_lane.hpp"
+#include "earmark/widgets/take_loader.hpp"
+#include "earmark/widgets/time_ruler_lane.hpp"
+#include "earmark/widgets/view_export.hpp"
+#include "earmark/widgets/view_state.hpp"
+#include "earmark/widgets/waveform_lane.hpp"
+
+#include <QCloseEvent>
+#include <QDragEnterEvent>
+#include <QDropEvent>
+#include <QMimeData>
+#include <QDockWidget>
+#include <QFileDialog>
+#include <QFileInfo>
+#include <QLabel>
+#include <QListWidget>
+#include <QMenuBar>
+#include <QProgressBar>
+#include <QSettings>
+#include <QStatusBar>
+#include <QToolButton>
+#include <QTimer>
+
+#include <cmath>
+
+namespace earmark::gui {
+
+using namespace earmark::widgets;
+
+namespace {
+constexpr int takeListWidth = 250;  // px
+}
+
+MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
+    setWindowTitle(tr("Earmark"));
+    setWindowIcon(QIcon(QStringLiteral(":/earmark/icons/earmark.svg")));
+    QSettings q;
+    settings_ = AnalysisSettings::load(q);
+
+    view_ = new ViewState(this);
+    loader_ = new TakeLoader(this);
+    player_ = new AudioPlayer(view_, this);
+    stack_ = new LaneStack(view_, this);
+    setCentralWidget(stack_);
+    buildLanes();
+
+    takeList_ = new QListWidget(this);
+    takeList_->setObjectName("takeList");
+    takeList_->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
+    takeList_->setMinimumWidth(takeListWidth);
+    auto* dock = new QDockWidget(tr("Takes"), this);
+    dock->setObjectName("takeDock");
+    dock->setWidget(takeList_);
+    dock->setFeatures(QDockWidget::DockWidgetMovable | QDockWidget::DockWidgetClosable);
+    addDockWidget(Qt::LeftDockWidgetArea, dock);
+    dock->hide();
+    connect(takeList_, &QListWidget::currentRowChanged, this, &MainWindow::selectTake);
+
+    buildStatusBar();
+    buildActions();
+    help_ = new HelpOverlay(menuBar(), this);
+
+    connect(loader_, &TakeLoader::audioReady, this, &MainWindow::onAudio);
+    connect(loader_, &TakeLoader::tracksReady, this, &MainWindow::onTracks);
+    connect(loader_, &TakeLoader::failed, this, &MainWindow::onFailed);
+    connect(loader_, &TakeLoader::progressChanged, this,
+            [this](quint64, double f) { progress_->setValue(static_cast<int>(f * 100)); });
+    connect(loader_, &TakeLoader::busyChanged, this, [this](bool busy) {
+        progress_->setVisible(busy);
+        cancelButton_->setVisible(busy);
+        if (busy) progress_->setValue(0);
+    });
+    connect(player_, &AudioPlayer::message, this, [this](const QString& m) { notify(m, 5000); });
+    connect(stack_, &LaneStack::pointDescribed, readout_, &HoverReadout::setLaneDetail);
+
+    if (Lane* wave = stack_->lane("waveform"))
+        wave->setEmptyText(tr("No take open. %1 opens audio files or a take list (.csv); "
+                              "you can also drop them on this window.")
+                               .arg(QKeySequence(Qt::CTRL | Qt::Key_O).toString(QKeySequence::NativeText)));
+    setAcceptDrops(true);
+    stack_->restoreLayout(q);
+    restoreGeometry(q.value("window/geometry").toByteArray());
+    restoreState(q.value("window/state").toByteArray());
+    if (!player_->available()) {
+        for (QAction* a : playActions_) {
+            a->setEnabled(false);
+            a->setStatusTip(player_->unavailableReason());
+        }
+        auto* noAudio = new QLabel(tr("no audio device"), this);
+        noAudio->setToolTip(player_->unavailableReason());
+        statusBar()->addPermanentWidget(noAudio);
+    }
+}
+
+MainWindow::~MainWindow() = default;
+
+void MainWindow::buildLanes() {
+    stack_->addLane(new OverviewLane(view_), LaneStack::Placement::Fixed);
+    stack_->addLane(new TimeRulerLane(view_), LaneStack::Placement::Fixed);
+    stack_->addLane(new WaveformLane(view_), LaneStack::Placement::Resizable, 2);
+    spectrogram_ = new SpectrogramLane(view_);
+    stack_->addLane(spectrogram_, LaneStack::Placement::Resizable, 4);
+    pitch_ = new PitchLane(view_);
+    stack_->addLane(pitch_, LaneStack::Placement::Resizable, 2);
+    stack_->addLane(new EnergyLane(view_), LaneStack::Placement::Resizable, 1);
+}
+
+void MainWindow::buildStatusBar() {
+    readout_ = new HoverReadout(view_, this);
+    statusBar()->addWidget(readout_, 1);
+    message_ = new QLabel(this);
+    message_->hide();
+    statusBar()->addWidget(message_);
+    messageTimer_.setSingleShot(true);
+    connect(&messageTimer_, &QTimer::timeout, this, [this] { notify({}); });
+    takeInfo_ = new QLabel(this);
+    statusBar()->addPermanentWidget(takeInfo_);
+    progress_ = new QProgressBar(this);
+    progress_->setRange(0, 100);
+    progress_->setMaximumWidth(160);
+    progress_->setFormat(tr("analysing %p%"));
+    progress_->hide();
+    statusBar()->addPermanentWidget(progress_);
+    cancelButton_ = new QToolButton(this);
+    cancelButton_->setText(tr("Stop"));
+    cancelButton_->setToolTip(tr("Stop the analysis (Ctrl+.)"));
+    cancelButton_->hide();
+    connect(cancelButton_, &QToolButton::clicked, this, [this] { loader_->cancel(); });
+    statusBar()->addPermanentWidget(cancelButton_);
+}
+
+void MainWindow::openTakes(const std::vector<TakeEntry>& takes) {
+    takes_ = takes;
+    takeList_->clear();
+    for (const TakeEntry& t : takes_) {
+        auto* item = new QListWidgetItem(takeList_);
+        item->setToolTip(t.text.isEmpty() ? t.audio : t.text + "\n" + t.audio);
+        auto* label = new QLabel(takeList_);
+        label->setTextFormat(Qt::RichText);
+        label->setWordWrap(true);
+        label->setContentsMargins(6, 4, 6, 4);
+        label->setText(QStringLiteral("<b>%1</b>%2").arg(t.id.toHtmlEscaped(),
+                                                          t.text.isEmpty() ? QString() : "<br>" + t.text.toHtmlEscaped()));
+        label->setAttribute(Qt::WA_TransparentForMouseEvents);
+        item->setSizeHint(QSize(200, label->heightForWidth(takeListWidth - 24) + 2));
+        takeList_->setItemWidget(item, label);
+    }
+    if (auto* dock = findChild<QDockWidget*>("takeDock")) dock->setVisible(takes_.size() > 1);
+    if (!takes_.empty()) takeList_->setCurrentRow(0);
+}
+
+void MainWindow::selectTake(int row) {
+    if (row < 0 || row >= static_cast<int>(takes_.size())) return;
+    player_->setTake(nullptr);
+    // Clear the previous take at once, so a take that fails to load never
+    // looks like the one before it.
+    audio_.reset();
+    tracks_.reset();
+    view_->resetForDuration(0.0);
+    stack_->setTake(nullptr);
+    readout_->setTracks(nullptr);
+    updateTakeInfo();
+    loader_->open(takes_[static_cast<std::size_t>(row)].audio, settings_);
+    setWindowTitle(tr("%1 — Earmark").arg(takes_[static_cast<std::size_t>(row)].id));
+}
+
+void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
+    audio_ = audio;
+    tracks_.reset();
+    view_->resetForDuration(audio->duration());
+    if (initialView_) view_->setVisibleRange(*initialView_);
+    if (initialSelection_) {
+        view_->setSelection(initialSelection_);
+        view_->setCursor(initialSelection_->start);
+    }
+    initialView_.reset();
+    initialSelection_.reset();
+    stack_->setTake(audio);
+    readout_->setTracks(nullptr);
+    player_->setTake(audio);
+    updateTakeInfo();
+}
+
+void MainWindow::onTracks(quint64, TakeTracksPtr tracks) {
+    tracks_ = tracks;
+    stack_->setTracks(tracks);
+    readout_->setTracks(tracks);
+    updateTakeInfo();
+    emit takeSettled(true, {});
+}
+
+void MainWindow::onFailed(quint64, const QString& message) {
+    notify(message);
+    if (auto* item = takeList_->currentItem()) item->setForeground(QColor(192, 57, 43));
+    emit takeSettled(false, message);
+}
+
+void MainWindow::notify(const QString& text, int milliseconds) {
+    message_->setText(text);
+    message_->setVisible(!text.isEmpty());
+    if (milliseconds > 0) messageTimer_.start(milliseconds);
+    else messageTimer_.stop();
+}
+
+void MainWindow::updateTakeInfo() {
+    if (!audio_) {
+        takeInfo_->clear();
+        return;
+    }
+    QStringList parts;
+    parts << tr("%1 Hz").arg(audio_->signal.sampleRate, 0, 'f', 0);
+    parts << tr("%1 s").arg(audio_->duration(), 0, 'f', 2);
+    if (tracks_) {
+        if (tracks_->loudnessLufs && std::isfinite(*tracks_->loudnessLufs))
+            parts << tr("%1 LUFS").arg(*tracks_->loudnessLufs, 0, 'f', 1);
+        if (std::isfinite(tracks_->sampleStats.samplePeakDbfs))
+            parts << tr("peak %1 dBFS").arg(tracks_->sampleStats.samplePeakDbfs, 0, 'f', 1);
+        else
+            parts << tr("digital silence");
+        if (tracks_->pitchSummary.medianHz) parts << tr("median F0 %1 Hz").arg(*tracks_->pitchSummary.medianHz, 0, 'f', 0);
+    }
+    takeInfo_->setText(parts.join(QStringLiteral(" · ")));
+}
+
+void MainWindow::openDialog() {
+    const QStringList files = QFileDialog::getOpenFileNames(
+        this, tr("Open takes"), {}, tr("Audio or take lists (*.wav *.flac *.ogg *.aiff *.aif *.csv);;All files (*)"));
+    if (files.isEmpty()) return;
+    try {
+        openTakes(takesFromArguments(files));
+    } catch (const std::exception& e) {
+        notify(QString::fromStdString(e.what()));
+    }
+}
+
+void MainWindow::editSettings() {
+    SettingsDialog dialog(settings_, this);
+    if (dialog.exec() != QDialog::Accepted) return;
+    const AnalysisSettings s = dialog.settings();
+    if (s == settings_) return;
+    settings_ = s;
+    QSettings q;
+    settings_.save(q);
+    loader_->reanalyse(settings_);
+}
+
+void MainWindow::exportView() {
+    const QString path = QFileDialog::getSaveFileName(this, tr("Export view as image"), {},
+                                                      tr("PNG image (*.png);;PDF document (*.pdf)"));
+    if (path.isEmpty()) return;
+    const QString error = exportWidget(*stack_, path);
+    notify(error.isEmpty() ? tr("Saved %1").arg(path) : error, 6000);
+}
+
+void MainWindow::play(int mode) { player_->play(static_cast<PlayMode>(mode)); }
+
+void MainWindow::adjustSpectrogram(double floorStep, double rangeStep) {
+    SpectrogramLook l = spectrogram_->look();
+    l.floorDb += floorStep;
+    l.rangeDb += rangeStep;
+    spectrogram_->setLook(l);
+    notify(tr("Spectrogram colours: %1 dB to %2 dB re peak")
+                                 .arg(spectrogram_->look().floorDb, 0, 'f', 0)
+                                 .arg(spectrogram_->look().floorDb + spectrogram_->look().rangeDb, 0, 'f', 0),
+                             3000);
+}
+
+void MainWindow::dragEnterEvent(QDragEnterEvent* event) {
+    if (event->mimeData()->hasUrls()) event->acceptProposedAction();
+}
+
+void MainWindow::dropEvent(QDropEvent* event) {
+    QStringList files;
+    for (const QUrl& url : event->mimeData()->urls())
+        if (url.isLocalFile()) files << url.toLocalFile();
+    if (files.isEmpty()) return;
+    try {
+        openTakes(takesFromArguments(files));
+        event->acceptProposedAction();
+    } catch (const std::exception& e) {
+        notify(QString::fromStdString(e.what()));
+    }
+}
+
+void MainWindow::closeEvent(QCloseEvent* event) {
+    player_->stop();
+    loader_->cancel();
+    QSettings q;
+    stack_->saveLayout(q);
+    q.setValue("window/geometry", saveGeometry());
+    q.setValue("window/state", saveState());
+    QMainWindow::closeEvent(event);
+}
+
+}  // namespace earmark::gui

@@ -1,0 +1,98 @@
+// Playback logic without an audio device.
+#include "earmark/widgets/transport.hpp"
+
+#include <gtest/gtest.h>
+
+namespace earmark::widgets {
+namespace {
+
+PlayContext context() {
+    PlayContext c;
+    c.duration = 10.0;
+    c.cursor = 2.5;
+    c.selection = TimeRange{4.0, 6.0};
+    c.visible = {3.0, 8.0};
+    return c;
+}
+
+TEST(PlanPlayback, EachModePlaysItsSpan) {
+    const PlayContext c = context();
+    auto s = planPlayback(PlayMode::FromCursor, c);
+    ASSERT_TRUE(s);
+    EXPECT_DOUBLE_EQ(s->start, 2.5);
+    EXPECT_DOUBLE_EQ(s->end, 10.0);
+    EXPECT_FALSE(s->loop);
+    s = planPlayback(PlayMode::Selection, c);
+    ASSERT_TRUE(s);
+    EXPECT_DOUBLE_EQ(s->start, 4.0);
+    EXPECT_DOUBLE_EQ(s->end, 6.0);
+    EXPECT_FALSE(s->loop);
+    s = planPlayback(PlayMode::VisibleRange, c);
+    ASSERT_TRUE(s);
+    EXPECT_DOUBLE_EQ(s->start, 3.0);
+    EXPECT_DOUBLE_EQ(s->end, 8.0);
+    s = planPlayback(PlayMode::LoopSelection, c);
+    ASSERT_TRUE(s);
+    EXPECT_TRUE(s->loop);
+}
+
+TEST(PlanPlayback, NothingToPlayGivesNothing) {
+    PlayContext c = context();
+    c.selection.reset();
+    EXPECT_FALSE(planPlayback(PlayMode::Selection, c));
+    EXPECT_FALSE(planPlayback(PlayMode::LoopSelection, c));
+    c.cursor = 10.0;
+    EXPECT_FALSE(planPlayback(PlayMode::FromCursor, c));
+}
+
+TEST(PlanPlayback, SpansAreCutToTheTake) {
+    PlayContext c = context();
+    c.selection = TimeRange{9.0, 12.0};
+    const auto s = planPlayback(PlayMode::Selection, c);
+    ASSERT_TRUE(s);
+    EXPECT_DOUBLE_EQ(s->end, 10.0);
+}
+
+TEST(Transport, OneShotPlayheadAdvancesThenStops) {
+    Transport t;
+    ASSERT_TRUE(t.start(PlayMode::Selection, context()));
+    EXPECT_TRUE(t.playing());
+    EXPECT_DOUBLE_EQ(*t.advance(0.0), 4.0);
+    EXPECT_DOUBLE_EQ(*t.advance(1.5), 5.5);
+    EXPECT_FALSE(t.advance(2.0));
+    EXPECT_FALSE(t.playing());
+}
+
+TEST(Transport, LoopWrapsAtTheSelectionEnd) {
+    Transport t;
+    ASSERT_TRUE(t.start(PlayMode::LoopSelection, context()));
+    EXPECT_NEAR(*t.advance(2.5), 4.5, 1e-12);
+    EXPECT_NEAR(*t.advance(7.25), 5.25, 1e-12);
+    EXPECT_TRUE(t.playing());
+    t.stop();
+    EXPECT_FALSE(t.playing());
+    EXPECT_FALSE(t.advance(1.0));
+}
+
+TEST(Transport, SourceFramesStayInsideTheSegment) {
+    Transport t;
+    const double rate = 1000.0;
+    ASSERT_TRUE(t.start(PlayMode::Selection, context()));
+    EXPECT_EQ(*t.sourceFrame(0, rate), 4000);
+    EXPECT_EQ(*t.sourceFrame(1999, rate), 5999);
+    EXPECT_FALSE(t.sourceFrame(2000, rate));
+    ASSERT_TRUE(t.start(PlayMode::LoopSelection, context()));
+    EXPECT_EQ(*t.sourceFrame(2000, rate), 4000);
+    EXPECT_EQ(*t.sourceFrame(4321, rate), 4321 % 2000 + 4000);
+}
+
+TEST(Transport, StartWithNothingToPlayStaysStopped) {
+    Transport t;
+    PlayContext c = context();
+    c.selection.reset();
+    EXPECT_FALSE(t.start(PlayMode::Selection, c));
+    EXPECT_FALSE(t.playing());
+}
+
+}  // namespace
+}  // namespace earmark::widgets
