@@ -58,3 +58,25 @@ TEST(Resample, SameRateIsACopyAndEmptyStaysEmpty) {
 
 }  // namespace
 }  // namespace earmark
+
+namespace earmark {
+namespace {
+
+// Streaming through libsoxr must not shift the signal in time: a click stays
+// at its time (within one output sample) at the start, middle and end.
+TEST(Resample, KeepsEventsInPlace) {
+    Signal in = test::silence(3.0, 44100);
+    for (double t : {0.05, 1.5, 2.95}) in.samples[static_cast<std::size_t>(t * 44100)] = 1.0f;
+    const Signal out = resample(in, 16000);
+    ASSERT_EQ(out.size(), 48000u);
+    for (double t : {0.05, 1.5, 2.95}) {
+        const auto centre = static_cast<std::size_t>(t * 16000);
+        std::size_t best = centre - 20;
+        for (std::size_t i = centre - 20; i <= centre + 20; ++i)
+            if (std::fabs(out.samples[i]) > std::fabs(out.samples[best])) best = i;
+        EXPECT_NEAR(static_cast<double>(best), t * 16000, 1.0) << "click at " << t << " s";
+    }
+}
+
+}  // namespace
+}  // namespace earmark
