@@ -15,5 +15,7 @@ int runExport(const std::vector<std::string>& args);
 int runScan(const std::vector<std::string>& args);
 int runMerge(const std::vector<std::string>& args);
 int runAlign(const std::vector<std::string>& args);
+int runCompare(const std::vector<std::string>& args);
+int runModel(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

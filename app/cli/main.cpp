@@ -32,6 +32,8 @@ const std::map<std::string, Subcommand>& subcommands() {
         {"scan", {earmark::cli::runScan, "measure many takes, raise suspects, rank them for listening"}},
         {"merge", {earmark::cli::runMerge, "combine the outputs of sharded scans into one ranking"}},
         {"align", {earmark::cli::runAlign, "word and phone timings of a take from its text (espeak-ng + DTW)"}},
+        {"compare", {earmark::cli::runCompare, "two takes of the same text as a pair: per-word table, F0, MCD"}},
+        {"model", {earmark::cli::runModel, "a model's predicted mel or attention matrix against the audio"}},
     };
     return table;
 }
