@@ -34,12 +34,6 @@ std::string writeVoiceTake(const TempDir& dir, const std::string& name = "take.w
     return path;
 }
 
-void expectOneLineError(const test::CliResult& r, const std::string& path) {
-    EXPECT_THAT(r.err, HasSubstr(path));
-    EXPECT_EQ(std::count(r.err.begin(), r.err.end(), '\n'), 1) << r.err;
-    EXPECT_THAT(r.err, Not(HasSubstr("terminate called")));
-}
-
 TEST(AnalyzeCli, JsonContract) {
     TempDir dir;
     const std::string path = writeVoiceTake(dir);
@@ -119,19 +113,19 @@ TEST(AnalyzeCli, BadInputExitsThreeWithOneLine) {
     const std::string missing = dir.file("missing.wav");
     auto r = runCli({"analyze", missing});
     EXPECT_EQ(r.exitCode, 3);
-    expectOneLineError(r, missing);
+    test::expectOneLineError(r, missing);
 
     const std::string text = dir.file("notes.wav");
     std::ofstream(text) << "not audio at all\n";
     r = runCli({"analyze", text});
     EXPECT_EQ(r.exitCode, 3);
-    expectOneLineError(r, text);
+    test::expectOneLineError(r, text);
 
     const std::string empty = dir.file("empty.wav");
     std::ofstream(empty).close();
     r = runCli({"analyze", empty});
     EXPECT_EQ(r.exitCode, 3);
-    expectOneLineError(r, empty);
+    test::expectOneLineError(r, empty);
 
     Signal nan = test::sine(200, 0.5, 16000, 0.5);
     nan.samples[100] = std::numeric_limits<float>::quiet_NaN();
@@ -139,7 +133,7 @@ TEST(AnalyzeCli, BadInputExitsThreeWithOneLine) {
     writeWav(nanPath, nan, WavEncoding::Float32);
     r = runCli({"analyze", nanPath});
     EXPECT_EQ(r.exitCode, 3);
-    expectOneLineError(r, nanPath);
+    test::expectOneLineError(r, nanPath);
 }
 
 TEST(AnalyzeCli, EdgeCaseFilesSucceed) {

@@ -32,12 +32,6 @@ std::string writeTake(const TempDir& dir, const std::string& name, int rateWpm) 
     return path;
 }
 
-void expectOneLineError(const test::CliResult& r, const std::string& part) {
-    EXPECT_THAT(r.err, HasSubstr(part));
-    EXPECT_EQ(std::count(r.err.begin(), r.err.end(), '\n'), 1) << r.err;
-    EXPECT_THAT(r.err, Not(HasSubstr("terminate called")));
-}
-
 TEST(CompareCli, JsonContractWithWordsFromTheText) {
     TempDir dir;
     const std::string a = writeTake(dir, "a.wav", 175), b = writeTake(dir, "b.wav", 140);
@@ -79,13 +73,13 @@ TEST(CompareCli, WordsThatDifferAreBadInputNamingTheFile) {
     std::ofstream(wordsB) << "0.1,0.5,lighthouse\n0.6,0.9,keeper\n";
     const auto r = runCli({"compare", a, b, "--text", kLine, "--words-b", wordsB});
     EXPECT_EQ(r.exitCode, 3);
-    expectOneLineError(r, wordsB);
+    test::expectOneLineError(r, wordsB);
     EXPECT_THAT(r.err, HasSubstr("has 2 words, take A has 8"));
     EXPECT_EQ(runCli({"compare", a}).exitCode, 2);
     EXPECT_EQ(runCli({"compare", a, b, "--text", "x", "--text-file", wordsB}).exitCode, 2);
     const auto missing = runCli({"compare", a, dir.file("none.wav")});
     EXPECT_EQ(missing.exitCode, 3);
-    expectOneLineError(missing, "none.wav");
+    test::expectOneLineError(missing, "none.wav");
 }
 
 TEST(ModelCli, MelDiffFindsThePlantedPatch) {
@@ -111,7 +105,7 @@ TEST(ModelCli, MelDiffFindsThePlantedPatch) {
     // A square array asks for the layout (exit 2) and works once told.
     const auto ambiguous = runCli({"model", "mel-diff", audio, modelData("pred_square_f4.npy")});
     EXPECT_EQ(ambiguous.exitCode, 2);
-    expectOneLineError(ambiguous, "--layout bands-frames or --layout frames-bands");
+    test::expectOneLineError(ambiguous, "--layout bands-frames or --layout frames-bands");
     const auto told = runCli({"model", "mel-diff", audio, modelData("pred_square_f4.npy"), "--layout", "frames-bands"});
     EXPECT_EQ(told.exitCode, 0) << told.err;
     EXPECT_THAT(told.out, HasSubstr("warning: assumed sample_rate 22050"));
@@ -120,7 +114,7 @@ TEST(ModelCli, MelDiffFindsThePlantedPatch) {
     const auto wrongBands =
         runCli({"model", "mel-diff", audio, modelData("pred_f16_bands_frames.npy"), "--bands", "64"});
     EXPECT_EQ(wrongBands.exitCode, 3);
-    expectOneLineError(wrongBands, "no axis of 64 bands");
+    test::expectOneLineError(wrongBands, "no axis of 64 bands");
 }
 
 TEST(ModelCli, AttentionReportsFaultsAndWritesTheTokenTier) {
@@ -150,7 +144,7 @@ TEST(ModelCli, AttentionReportsFaultsAndWritesTheTokenTier) {
     EXPECT_EQ(runCli({"model", "guess"}).exitCode, 2);
     const auto wrong = runCli({"model", "attention", modelData("pred_square_f4.npy"), "--tokens", tokens});
     EXPECT_EQ(wrong.exitCode, 3);
-    expectOneLineError(wrong, "has no axis of 24 entries");
+    test::expectOneLineError(wrong, "has no axis of 24 entries");
 }
 
 }  // namespace

@@ -14,4 +14,8 @@ struct CliResult {
 
 CliResult runCli(const std::vector<std::string>& args);
 
+// The failure contract of every command: stderr is exactly one line, it
+// contains `part` (usually the file's path), and nothing crashed.
+void expectOneLineError(const CliResult& r, const std::string& part);
+
 }  // namespace earmark::test
