@@ -10,9 +10,6 @@
 namespace earmark {
 namespace {
 
-const char* name(MelScale s) { return s == MelScale::Htk ? "htk" : "slaney"; }
-const char* name(MelNormalisation n) { return n == MelNormalisation::Area ? "area" : "none"; }
-const char* name(SpectrumKind k) { return k == SpectrumKind::Magnitude ? "magnitude" : "power"; }
 const char* name(LogScale l) {
     switch (l) {
     case LogScale::None: return "none";
@@ -21,17 +18,16 @@ const char* name(LogScale l) {
     }
     return "none";
 }
-const char* name(WindowShape w) {
-    switch (w) {
-    case WindowShape::Hann: return "hann-periodic";
-    case WindowShape::Hamming: return "hamming-periodic";
-    case WindowShape::Rectangular: return "rectangular";
-    }
-    return "hann-periodic";
-}
-const char* name(FrameAlignment a) { return a == FrameAlignment::Centred ? "centred" : "vocoder-padded"; }
 
 }  // namespace
+
+const char* sidecarName(MelScale scale) { return scale == MelScale::Htk ? "htk" : "slaney"; }
+const char* sidecarName(MelNormalisation n) { return n == MelNormalisation::Area ? "area" : "none"; }
+const char* sidecarName(SpectrumKind k) { return k == SpectrumKind::Magnitude ? "magnitude" : "power"; }
+const char* sidecarName(FrameAlignment a) { return a == FrameAlignment::Centred ? "centred" : "vocoder-padded"; }
+const char* sidecarName(WindowShape w) {
+    return w == WindowShape::Hann ? "hann-periodic" : w == WindowShape::Hamming ? "hamming-periodic" : "rectangular";
+}
 
 std::string melSidecarPath(const std::string& npyPath) { return npyPath + ".json"; }
 
@@ -50,14 +46,14 @@ void writeMelNpy(const std::string& path, const Spectrogram& mel, const MelParam
         {"hop_s", mel.hopSeconds},
         {"fft_size", params.stft.fftSize},
         {"window_size", params.stft.windowSize},
-        {"window", name(params.stft.window)},
-        {"frame_alignment", name(params.stft.alignment)},
+        {"window", sidecarName(params.stft.window)},
+        {"frame_alignment", sidecarName(params.stft.alignment)},
         {"bands", params.bands},
         {"fmin_hz", params.fminHz},
         {"fmax_hz", params.fmaxHz},
-        {"mel_scale", name(params.scale)},
-        {"normalisation", name(params.normalisation)},
-        {"spectrum", name(params.kind)},
+        {"mel_scale", sidecarName(params.scale)},
+        {"normalisation", sidecarName(params.normalisation)},
+        {"spectrum", sidecarName(params.kind)},
         {"log", name(params.log)},
         {"log_floor", params.floor},
         {"frames", mel.frames},

@@ -116,14 +116,6 @@ const char* melLogBaseName(MelLogBase base) {
     return "natural";
 }
 
-const char* sidecarName(MelScale scale) { return scale == MelScale::Htk ? "htk" : "slaney"; }
-const char* sidecarName(MelNormalisation n) { return n == MelNormalisation::Area ? "area" : "none"; }
-const char* sidecarName(SpectrumKind k) { return k == SpectrumKind::Magnitude ? "magnitude" : "power"; }
-const char* sidecarName(FrameAlignment a) { return a == FrameAlignment::Centred ? "centred" : "vocoder-padded"; }
-const char* sidecarName(WindowShape w) {
-    return w == WindowShape::Hann ? "hann-periodic" : w == WindowShape::Hamming ? "hamming-periodic" : "rectangular";
-}
-
 std::optional<MelLogBase> parseMelLogBase(std::string_view name) {
     if (name == "natural" || name == "ln") return MelLogBase::Natural;
     if (name == "log10") return MelLogBase::Log10;

@@ -14,6 +14,13 @@ namespace earmark {
 // Throws Error naming the path if it cannot be written.
 void writeMelNpy(const std::string& path, const Spectrogram& mel, const MelParams& params);
 
+// The words the sidecar uses for each setting (read back by model/mel_settings).
+const char* sidecarName(MelScale scale);                  // "htk", "slaney"
+const char* sidecarName(MelNormalisation normalisation);  // "area", "none"
+const char* sidecarName(SpectrumKind spectrum);           // "magnitude", "power"
+const char* sidecarName(FrameAlignment alignment);        // "centred", "vocoder-padded"
+const char* sidecarName(WindowShape window);              // "hann-periodic", "hamming-periodic", "rectangular"
+
 // The sidecar's file name for a given .npy path.
 std::string melSidecarPath(const std::string& npyPath);
 

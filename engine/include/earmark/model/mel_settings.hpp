@@ -9,6 +9,8 @@
 // Plain values; thread-safe as values are.
 #pragma once
 
+#include "earmark/export/mel_npy.hpp"
+
 #include "earmark/spectral/mel.hpp"
 
 #include <optional>
@@ -29,11 +31,6 @@ const char* melLogBaseName(MelLogBase base);  // "natural", "log10", "decibel", 
 std::optional<MelLogBase> parseMelLogBase(std::string_view name);
 
 // The sidecar's names of the other enumerated settings.
-const char* sidecarName(MelScale scale);                  // "htk", "slaney"
-const char* sidecarName(MelNormalisation normalisation);  // "area", "none"
-const char* sidecarName(SpectrumKind spectrum);           // "magnitude", "power"
-const char* sidecarName(FrameAlignment alignment);        // "centred", "vocoder-padded"
-const char* sidecarName(WindowShape window);              // "hann-periodic", "hamming-periodic", "rectangular"
 
 struct MelSettings {
     double sampleRateHz = 22050.0;
