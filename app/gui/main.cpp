@@ -1,4 +1,9 @@
-// earmark [AUDIO… | TAKES.csv] [--screenshot PATH [--size WxH]] [--view START:END] [--select START:END]
+// earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--screenshot PATH [--size WxH]]
+//         [--view START:END] [--select START:END]
+//
+// A `.earmark` argument opens that review session (its queue, tiers, marks
+// and suspects); --take shows one of its takes first (id, line id or file name),
+// and --select on the span of one of its marks selects that mark.
 //
 // With --screenshot the window loads the first take, waits for its analysis,
 // writes the window to PATH as PNG and exits: 0 on success, 1 when the take
@@ -36,8 +41,12 @@ int main(int argc, char** argv) {
     parser.setApplicationDescription(QStringLiteral("Earmark: look at, listen to and measure speech takes."));
     parser.addHelpOption();
     parser.addVersionOption();
-    parser.addPositionalArgument(QStringLiteral("takes"), QStringLiteral("Audio files, or a CSV take list (id,audio,text,…)."),
-                                 QStringLiteral("[AUDIO… | TAKES.csv]"));
+    parser.addPositionalArgument(QStringLiteral("takes"),
+                                 QStringLiteral("Audio files, a CSV take list (id,audio,text,…), or a review session (.earmark)."),
+                                 QStringLiteral("[AUDIO… | TAKES.csv | SESSION.earmark]"));
+    const QCommandLineOption takeOption(QStringLiteral("take"),
+                                        QStringLiteral("With a session: the take to show first (its id, line id or file name)."),
+                                        QStringLiteral("KEY"));
     const QCommandLineOption screenshot(QStringLiteral("screenshot"),
                                         QStringLiteral("Render the window to PATH (PNG) once the take is analysed, then exit."),
                                         QStringLiteral("PATH"));
@@ -47,7 +56,7 @@ int main(int argc, char** argv) {
                                   QStringLiteral("START:END"));
     const QCommandLineOption select(QStringLiteral("select"), QStringLiteral("Selection in seconds, e.g. 1.2:1.6."),
                                     QStringLiteral("START:END"));
-    parser.addOptions({screenshot, size, view, select});
+    parser.addOptions({screenshot, size, view, select, takeOption});
     parser.process(app);
 
     const QRegularExpression sizeRe(QStringLiteral("^(\\d+)x(\\d+)$"));
@@ -70,9 +79,14 @@ int main(int argc, char** argv) {
     if (parser.isSet(select) && !(selection = parseSpan(select)))
         return fail(QStringLiteral("--select wants START:END in seconds with END > START >= 0"), 2);
 
+    const QStringList arguments = parser.positionalArguments();
+    QString sessionPath;
+    if (arguments.size() == 1 && arguments.front().endsWith(QStringLiteral(".earmark"), Qt::CaseInsensitive))
+        sessionPath = arguments.front();
+    if (parser.isSet(takeOption) && sessionPath.isEmpty()) return fail(QStringLiteral("--take needs a session (.earmark)"), 2);
     std::vector<earmark::widgets::TakeEntry> takes;
     try {
-        takes = earmark::widgets::takesFromArguments(parser.positionalArguments());
+        if (sessionPath.isEmpty()) takes = earmark::widgets::takesFromArguments(arguments);
     } catch (const std::exception& e) {
         return fail(QString::fromLocal8Bit(e.what()), 1);
     }
@@ -81,7 +95,7 @@ int main(int argc, char** argv) {
     // Screenshots do not depend on (or change) the user's saved settings.
     QTemporaryDir settingsDir;
     if (shooting) {
-        if (takes.empty()) return fail(QStringLiteral("--screenshot needs a take to show"), 2);
+        if (takes.empty() && sessionPath.isEmpty()) return fail(QStringLiteral("--screenshot needs a take to show"), 2);
         QSettings::setDefaultFormat(QSettings::IniFormat);
         QSettings::setPath(QSettings::IniFormat, QSettings::UserScope, settingsDir.path());
     }
@@ -92,9 +106,9 @@ int main(int argc, char** argv) {
     if (shooting) {
         const QString path = parser.value(screenshot);
         QObject::connect(&window, &earmark::gui::MainWindow::takeSettled, &app,
-                         [&](bool ok, const QString& message) {
+                         [&, path](bool ok, const QString& message) {
                              // Let queued plot replots and layout run before grabbing.
-                             QTimer::singleShot(50, &app, [&, ok, message] {
+                             QTimer::singleShot(50, &app, [&, path, ok, message] {
                                  if (!ok) fail(message, 1);
                                  if (!window.grab().save(path, "PNG")) {
                                      fail(QStringLiteral("%1: cannot write the image").arg(path), 1);
@@ -110,7 +124,15 @@ int main(int argc, char** argv) {
     }
     window.show();
     if (shooting) window.resize(windowSize);
-    window.openTakes(takes);
+    if (!sessionPath.isEmpty()) {
+        if (!window.openSession(sessionPath)) {
+            if (shooting) return fail(QStringLiteral("%1: cannot open the session").arg(sessionPath), 1);
+        } else if (parser.isSet(takeOption) && !window.showSessionTake(parser.value(takeOption))) {
+            return fail(QStringLiteral("%1: no take '%2' in the session").arg(sessionPath, parser.value(takeOption)), 2);
+        }
+    } else {
+        window.openTakes(takes);
+    }
     const int code = app.exec();
     return shooting ? exitCode : code;
 }

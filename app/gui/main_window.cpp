@@ -5,6 +5,12 @@
 #include "earmark/widgets/help_overlay.hpp"
 #include "earmark/widgets/hover_readout.hpp"
 #include "earmark/widgets/lane_stack.hpp"
+#include "earmark/widgets/mark_lane.hpp"
+#include "earmark/widgets/mark_list.hpp"
+#include "earmark/widgets/review_queue.hpp"
+#include "earmark/widgets/session_document.hpp"
+#include "earmark/widgets/suspect_lane.hpp"
+#include "earmark/widgets/tier_lane.hpp"
 #include "earmark/widgets/overview_lane.hpp"
 #include "earmark/widgets/pitch_lane.hpp"
 #include "earmark/widgets/settings_dialog.hpp"
@@ -28,8 +34,10 @@
 #include <QProgressBar>
 #include <QSettings>
 #include <QStatusBar>
+#include <QStackedWidget>
 #include <QToolButton>
 #include <QTimer>
+#include <QUndoStack>
 
 #include <cmath>
 
@@ -48,6 +56,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     settings_ = AnalysisSettings::load(q);
 
     view_ = new ViewState(this);
+    undo_ = new QUndoStack(this);
     loader_ = new TakeLoader(this);
     player_ = new AudioPlayer(view_, this);
     stack_ = new LaneStack(view_, this);
@@ -58,15 +67,21 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     takeList_->setObjectName("takeList");
     takeList_->setHorizontalScrollBarPolicy(Qt::ScrollBarAlwaysOff);
     takeList_->setMinimumWidth(takeListWidth);
-    auto* dock = new QDockWidget(tr("Takes"), this);
-    dock->setObjectName("takeDock");
-    dock->setWidget(takeList_);
-    dock->setFeatures(QDockWidget::DockWidgetMovable | QDockWidget::DockWidgetClosable);
-    addDockWidget(Qt::LeftDockWidgetArea, dock);
-    dock->hide();
+    queue_ = new ReviewQueue(this);
+    takePanel_ = new QStackedWidget(this);
+    takePanel_->addWidget(takeList_);
+    takePanel_->addWidget(queue_);
+    addPanel(tr("Takes"), "takeDock", takePanel_, Qt::LeftDockWidgetArea);
     connect(takeList_, &QListWidget::currentRowChanged, this, &MainWindow::selectTake);
+    connect(queue_, &ReviewQueue::takeChosen, this, [this](qint64 id) {
+        if (!session_) return;
+        const int row = session_->indexOf(id);
+        if (row != currentRow_) selectTake(row);
+    });
+    connect(queue_, &ReviewQueue::locateRequested, this, [this] { locateAudio(); });
 
     buildStatusBar();
+    buildSessionPanels();
     buildActions();
     help_ = new HelpOverlay(menuBar(), this);
 
@@ -102,7 +117,12 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     }
 }
 
-MainWindow::~MainWindow() = default;
+MainWindow::~MainWindow() {
+    // The undo stack is destroyed after this window's members and clears
+    // itself on the way, emitting signals the window must no longer hear.
+    undo_->blockSignals(true);
+    if (session_) session_->blockSignals(true);
+}
 
 void MainWindow::buildLanes() {
     stack_->addLane(new OverviewLane(view_), LaneStack::Placement::Fixed);
@@ -113,6 +133,49 @@ void MainWindow::buildLanes() {
     pitch_ = new PitchLane(view_);
     stack_->addLane(pitch_, LaneStack::Placement::Resizable, 2);
     stack_->addLane(new EnergyLane(view_), LaneStack::Placement::Resizable, 1);
+    for (const auto& [name, title] : {std::pair{QStringLiteral("words"), tr("Words")}, std::pair{QStringLiteral("phones"), tr("Phones")}}) {
+        auto* lane = new TierLane(name, title, view_);
+        tierLanes_.push_back(lane);
+        stack_->addLane(lane, LaneStack::Placement::Resizable, 0);
+        lane->setSnap([this](double t) { return snapTime(t); });
+        connect(lane, &TierLane::editRequested, this, &MainWindow::editTier);
+        connect(lane, &TierLane::playRequested, this, [this] { play(static_cast<int>(PlayMode::Selection)); });
+        connect(lane, &TierLane::activated, this, [this, lane] {
+            if (activeTier_ != lane) notify(tr("Tier commands now act on %1").arg(lane->tierName()), 3000);
+            activeTier_ = lane;
+        });
+    }
+    activeTier_ = tierLanes_.front();
+    suspectLane_ = new SuspectLane(view_);
+    stack_->addLane(suspectLane_, LaneStack::Placement::Resizable, 0);
+    markLane_ = new MarkLane(view_);
+    stack_->addLane(markLane_, LaneStack::Placement::Resizable, 0);
+    connect(markLane_, &MarkLane::markSelected, this, [this](qint64 id) {
+        selectMark(id ? std::optional<MarkId>(id) : std::nullopt);
+    });
+    connect(markLane_, &MarkLane::playRequested, this, [this] { play(static_cast<int>(PlayMode::Selection)); });
+    connect(markLane_, &MarkLane::spanEdited, this, [this](qint64 id, double start, double end) {
+        if (!session_) return;
+        const auto m = session_->mark(id);
+        if (!m) return;
+        MarkDraft d = m->draft();
+        d.startSeconds = start;
+        d.endSeconds = end;
+        d.words.clear();  // the session fills them from the word tier
+        d.measures = measuresFor(start, end);
+        editMark(id, d);
+    });
+}
+
+QDockWidget* MainWindow::addPanel(const QString& title, const QString& objectName, QWidget* content,
+                                  Qt::DockWidgetArea area) {
+    auto* dock = new QDockWidget(title, this);
+    dock->setObjectName(objectName);
+    dock->setWidget(content);
+    dock->setFeatures(QDockWidget::DockWidgetMovable | QDockWidget::DockWidgetClosable);
+    addDockWidget(area, dock);
+    dock->hide();
+    return dock;
 }
 
 void MainWindow::buildStatusBar() {
@@ -140,6 +203,18 @@ void MainWindow::buildStatusBar() {
 }
 
 void MainWindow::openTakes(const std::vector<TakeEntry>& takes) {
+    if (session_) {
+        queue_->setDocument(nullptr);
+        markList_->setDocument(nullptr);
+        session_->deleteLater();
+        session_ = nullptr;
+        takeIds_.clear();
+    }
+    undo_->clear();
+    takePanel_->setCurrentWidget(takeList_);
+    for (const char* panel : {"markDock", "markListDock"})
+        if (auto* dock = findChild<QDockWidget*>(panel)) dock->hide();
+    currentRow_ = -1;
     takes_ = takes;
     takeList_->clear();
     for (const TakeEntry& t : takes_) {
@@ -161,6 +236,15 @@ void MainWindow::openTakes(const std::vector<TakeEntry>& takes) {
 
 void MainWindow::selectTake(int row) {
     if (row < 0 || row >= static_cast<int>(takes_.size())) return;
+    currentRow_ = row;
+    currentTake_ = session_ ? std::optional<TakeId>(takeIds_[static_cast<std::size_t>(row)]) : std::nullopt;
+    if (!session_) undo_->clear();  // loose timings edits belong to their take
+    if (session_) queue_->setCurrentTake(*currentTake_);
+    selectedMark_.reset();
+    tiers_ = {};
+    timingsPath_.clear();
+    showTiers();
+    showMarks();
     player_->setTake(nullptr);
     // Clear the previous take at once, so a take that fails to load never
     // looks like the one before it.
@@ -170,8 +254,18 @@ void MainWindow::selectTake(int row) {
     stack_->setTake(nullptr);
     readout_->setTracks(nullptr);
     updateTakeInfo();
+    updateTitle();
+    updateSessionActions();
+    if (currentTake_ && session_->audioMissing(*currentTake_)) {
+        if (Lane* wave = stack_->lane("waveform"))
+            wave->setEmptyText(tr("The audio of this take is missing:\n%1\n%2 points the session to where it is now.")
+                                   .arg(takes_[static_cast<std::size_t>(row)].audio,
+                                        QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_L).toString(QKeySequence::NativeText)));
+        emit takeSettled(false, tr("audio missing"));
+        return;
+    }
+    if (Lane* wave = stack_->lane("waveform")) wave->setEmptyText(tr("Loading…"));
     loader_->open(takes_[static_cast<std::size_t>(row)].audio, settings_);
-    setWindowTitle(tr("%1 — Earmark").arg(takes_[static_cast<std::size_t>(row)].id));
 }
 
 void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
@@ -184,11 +278,25 @@ void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
         view_->setCursor(initialSelection_->start);
     }
     initialView_.reset();
-    initialSelection_.reset();
+    const std::optional<TimeRange> asked = std::exchange(initialSelection_, std::nullopt);
     stack_->setTake(audio);
     readout_->setTracks(nullptr);
     player_->setTake(audio);
+    if (session_ && currentTake_) tiers_ = session_->tiers(*currentTake_);
+    tiers_.durationS = audio->duration();
+    showTiers();
+    showMarks();
+    // A selection given on the command line that is a mark's span selects the mark.
+    if (asked && session_ && currentTake_)
+        for (const Mark& m : session_->marks(*currentTake_))
+            if (std::abs(m.startSeconds - asked->start) < 1e-3 && std::abs(m.endSeconds - asked->end) < 1e-3) selectMark(m.id);
+    if (pendingMark_) {
+        const MarkId id = *pendingMark_;
+        pendingMark_.reset();
+        goToMark(id, std::exchange(pendingPlay_, false));
+    }
     updateTakeInfo();
+    updateSessionActions();
 }
 
 void MainWindow::onTracks(quint64, TakeTracksPtr tracks) {

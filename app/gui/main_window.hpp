@@ -3,6 +3,10 @@
 // no data of its own beyond what is shown.
 #pragma once
 
+#include "earmark/align/text_aligner.hpp"
+#include "earmark/marks/mark.hpp"
+#include "earmark/store/take.hpp"
+#include "earmark/tiers/tier.hpp"
 #include "earmark/widgets/analysis_settings.hpp"
 #include "earmark/widgets/take_data.hpp"
 #include "earmark/widgets/take_list.hpp"
@@ -15,17 +19,30 @@
 #include <vector>
 
 class QAction;
+class QDockWidget;
 class QLabel;
 class QListWidget;
 class QMenu;
 class QProgressBar;
+class QStackedWidget;
 class QToolButton;
+class QUndoStack;
 
 namespace earmark::widgets {
+class AlignDialog;
 class AudioPlayer;
 class HelpOverlay;
 class HoverReadout;
 class LaneStack;
+class MarkInspector;
+class MarkLane;
+class MarkList;
+class MarkPalette;
+struct MarkChoice;
+class ReviewQueue;
+class SessionDocument;
+class SuspectLane;
+class TierLane;
 class PitchLane;
 class SpectrogramLane;
 class TakeLoader;
@@ -41,6 +58,13 @@ public:
     ~MainWindow() override;
 
     void openTakes(const std::vector<widgets::TakeEntry>& takes);
+    // Opens a `.earmark` session: its queue replaces the take list. Returns
+    // false (and says why in the status bar) when it cannot be opened.
+    bool openSession(const QString& path);
+    // Shows a take of the open session (by id, line id or file name); false when unknown.
+    bool showSessionTake(const QString& key);
+    // Reads a timings file as the current take's tiers (undoable).
+    bool openTimings(const QString& path);
     // Applied once, when the next take's audio arrives (for --view, --select).
     void setInitialView(std::optional<widgets::TimeRange> range, std::optional<widgets::TimeRange> selection) {
         initialView_ = range;
@@ -48,6 +72,20 @@ public:
     }
     widgets::LaneStack* laneStack() const { return stack_; }
     widgets::ViewState* viewState() const { return view_; }
+    widgets::SessionDocument* session() const { return session_; }
+    widgets::ReviewQueue* reviewQueue() const { return queue_; }
+    widgets::MarkPalette* markPalette() const { return palette_; }
+    widgets::AlignDialog* alignDialog() const { return align_; }
+    widgets::MarkInspector* markInspector() const { return inspector_; }
+    widgets::MarkList* markList() const { return markList_; }
+    widgets::MarkLane* markLane() const { return markLane_; }
+    widgets::SuspectLane* suspectLane() const { return suspectLane_; }
+    widgets::TierLane* tierLane(const QString& tierName) const;
+    QUndoStack* undoStack() const { return undo_; }
+    std::optional<TakeId> currentTakeId() const { return currentTake_; }
+    const TierSet& currentTiers() const { return tiers_; }
+    // Loose timings edited since they were opened or saved (a session stores each edit at once).
+    bool tiersUnsaved() const;
 
 signals:
     // The current take is fully shown (tracks arrived) or failed to load.
@@ -65,6 +103,39 @@ private:
     QAction* addAction(QMenu* menu, const QString& text, const QKeySequence& key, auto slot);
     QAction* addToggle(QMenu* menu, const QString& text, const QKeySequence& key, bool on, auto slot);
     void selectTake(int row);
+    void buildSessionPanels();
+    // A closable, movable side panel holding `content`, hidden until shown.
+    QDockWidget* addPanel(const QString& title, const QString& objectName, QWidget* content, Qt::DockWidgetArea area);
+    void buildSessionActions();
+    void showTiers();
+    void showMarks();
+    void selectMark(std::optional<MarkId> id);
+    void openMarkPalette();
+    void createMark(const widgets::MarkChoice& choice);
+    void editMark(MarkId id, const MarkDraft& draft);
+    void deleteSelectedMark();
+    void goToMark(MarkId id, bool play);
+    void setTakeStatus(ReviewStatus status);
+    void locateAudio();
+    // Replaces one tier of the current take through the undo stack.
+    void editTier(const QString& description, const Tier& after);
+    void editTiers(const QString& description, const TierSet& after);
+    void storeTiers(std::optional<TakeId> take, const TierSet& tiers);
+    widgets::TierLane* activeTier() const;
+    void splitAtCursor();
+    void mergeWithNext();
+    void editLabelAtCursor();
+    void insertIntervalOverSelection();
+    void deleteIntervalAtCursor();
+    void openTimingsDialog();
+    void saveTimings();
+    void openSessionDialog();
+    void openAlignDialog();
+    void onAligned(const QString& audioPath, const AlignResult& result);
+    double snapTime(double t) const;
+    void updateTitle();
+    void updateSessionActions();
+    MeasureSnapshot measuresFor(double start, double end) const;
     void onAudio(quint64 request, widgets::TakeAudioPtr audio);
     void onTracks(quint64 request, widgets::TakeTracksPtr tracks);
     void onFailed(quint64 request, const QString& message);
@@ -92,6 +163,32 @@ private:
     QLabel* message_ = nullptr;
     QTimer messageTimer_;
     std::vector<QAction*> playActions_;
+    std::vector<QAction*> sessionActions_;  // need an open session
+    std::vector<QAction*> markActions_;     // need a session and a loaded take
+    std::vector<QAction*> tierActions_;     // need a loaded take
+    QAction* saveTimingsAction_ = nullptr;
+
+    widgets::SessionDocument* session_ = nullptr;
+    QUndoStack* undo_ = nullptr;
+    QStackedWidget* takePanel_ = nullptr;
+    widgets::ReviewQueue* queue_ = nullptr;
+    widgets::MarkPalette* palette_ = nullptr;
+    widgets::AlignDialog* align_ = nullptr;
+    widgets::MarkInspector* inspector_ = nullptr;
+    widgets::MarkList* markList_ = nullptr;
+    widgets::MarkLane* markLane_ = nullptr;
+    widgets::SuspectLane* suspectLane_ = nullptr;
+    std::vector<widgets::TierLane*> tierLanes_;
+    widgets::TierLane* activeTier_ = nullptr;
+    std::vector<TakeId> takeIds_;  // parallel to takes_ when a session is open
+    std::optional<TakeId> currentTake_;
+    int currentRow_ = -1;
+    std::optional<MarkId> selectedMark_;
+    std::optional<MarkId> pendingMark_;  // select once its take has loaded
+    bool pendingPlay_ = false;
+    TierSet tiers_;                 // of the current take, with confidences when known
+    QString timingsPath_;           // loose timings file of the current take ("" = none)
+    bool snapToZero_ = false;
 
     std::vector<widgets::TakeEntry> takes_;
     widgets::AnalysisSettings settings_;

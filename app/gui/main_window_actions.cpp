@@ -5,12 +5,19 @@
 #include "earmark/widgets/audio_player.hpp"
 #include "earmark/widgets/help_overlay.hpp"
 #include "earmark/widgets/lane_stack.hpp"
+#include "earmark/widgets/mark_inspector.hpp"
+#include "earmark/widgets/mark_lane.hpp"
+#include "earmark/widgets/review_queue.hpp"
+#include "earmark/widgets/session_document.hpp"
+#include "earmark/widgets/tier_lane.hpp"
 #include "earmark/widgets/pitch_lane.hpp"
 #include "earmark/widgets/spectrogram_lane.hpp"
 #include "earmark/widgets/take_loader.hpp"
 #include "earmark/widgets/view_state.hpp"
 
 #include <QAction>
+#include <QDockWidget>
+#include <QUndoStack>
 #include <QListWidget>
 #include <QMenuBar>
 
@@ -47,17 +54,45 @@ QAction* MainWindow::addToggle(QMenu* menu, const QString& text, const QKeySeque
 void MainWindow::buildActions() {
     QMenu* file = menuBar()->addMenu(tr("&File"));
     addAction(file, tr("Open takes…"), QKeySequence(Qt::CTRL | Qt::Key_O), [this] { openDialog(); });
+    addAction(file, tr("Open session…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_O), [this] { openSessionDialog(); });
+    tierActions_.push_back(addAction(file, tr("Open timings for this take…"), QKeySequence(Qt::CTRL | Qt::Key_T),
+                                     [this] { openTimingsDialog(); }));
+    saveTimingsAction_ = addAction(file, tr("Save timings"), QKeySequence(Qt::CTRL | Qt::Key_S),
+                                   [this] { saveTimings(); });
     addAction(file, tr("Export view as image…"), QKeySequence(Qt::CTRL | Qt::Key_E), [this] { exportView(); });
     file->addSeparator();
     addAction(file, tr("Quit"), QKeySequence(Qt::CTRL | Qt::Key_Q), [this] { close(); });
 
+    QMenu* edit = menuBar()->addMenu(tr("&Edit"));
+    QAction* undo = undo_->createUndoAction(this, tr("Undo"));
+    undo->setShortcut(QKeySequence(Qt::CTRL | Qt::Key_Z));
+    edit->addAction(undo);
+    QMainWindow::addAction(undo);
+    QAction* redo = undo_->createRedoAction(this, tr("Redo"));
+    redo->setShortcut(QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_Z));
+    edit->addAction(redo);
+    QMainWindow::addAction(redo);
+
     QMenu* take = menuBar()->addMenu(tr("&Take"));
     addAction(take, tr("Next take"), QKeySequence(Qt::ALT | Qt::Key_Down), [this] {
-        if (takeList_->currentRow() + 1 < takeList_->count()) takeList_->setCurrentRow(takeList_->currentRow() + 1);
+        if (session_) queue_->step(1);
+        else if (takeList_->currentRow() + 1 < takeList_->count()) takeList_->setCurrentRow(takeList_->currentRow() + 1);
     });
     addAction(take, tr("Previous take"), QKeySequence(Qt::ALT | Qt::Key_Up), [this] {
-        if (takeList_->currentRow() > 0) takeList_->setCurrentRow(takeList_->currentRow() - 1);
+        if (session_) queue_->step(-1);
+        else if (takeList_->currentRow() > 0) takeList_->setCurrentRow(takeList_->currentRow() - 1);
     });
+    take->addSeparator();
+    const std::pair<ReviewStatus, Qt::Key> statuses[] = {{ReviewStatus::Clean, Qt::Key_C},
+                                                         {ReviewStatus::HasMarks, Qt::Key_M},
+                                                         {ReviewStatus::Skipped, Qt::Key_S},
+                                                         {ReviewStatus::InReview, Qt::Key_R},
+                                                         {ReviewStatus::Unreviewed, Qt::Key_U}};
+    for (const auto& [status, key] : statuses)
+        sessionActions_.push_back(addAction(take, tr("Status: %1").arg(statusLabel(status)), QKeySequence(Qt::SHIFT | key),
+                                            [this, status] { setTakeStatus(status); }));
+    sessionActions_.push_back(addAction(take, tr("Locate missing audio…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_L),
+                                        [this] { locateAudio(); }));
     take->addSeparator();
     addAction(take, tr("Analysis settings…"), QKeySequence(Qt::CTRL | Qt::Key_Comma), [this] { editSettings(); });
     addAction(take, tr("Analyse again"), QKeySequence(Qt::Key_F5), [this] { loader_->reanalyse(settings_); });
@@ -156,8 +191,62 @@ void MainWindow::buildActions() {
         pitch_->setLook(l);
     });
 
+    buildSessionActions();
+
     QMenu* help = menuBar()->addMenu(tr("&Help"));
     addAction(help, tr("Keyboard overview"), QKeySequence(Qt::Key_F1), [this] { help_->toggle(); });
+}
+
+void MainWindow::buildSessionActions() {
+    QMenu* marks = menuBar()->addMenu(tr("&Marks"));
+    markActions_.push_back(addAction(marks, tr("New mark on the selection or word…"), QKeySequence(Qt::Key_N),
+                                     [this] { openMarkPalette(); }));
+    markActions_.push_back(addAction(marks, tr("Delete the selected mark"), QKeySequence(Qt::Key_Delete),
+                                     [this] { deleteSelectedMark(); }));
+    markActions_.push_back(addAction(marks, tr("Write a note on the selected mark"), QKeySequence(Qt::SHIFT | Qt::Key_N), [this] {
+        if (auto* dock = findChild<QDockWidget*>("markDock")) dock->show();
+        inspector_->focusNote();
+    }));
+    auto stepMark = [this](int delta) {
+        const auto& all = markLane_->marks();
+        if (all.empty()) return;
+        int i = -1;
+        for (std::size_t k = 0; k < all.size(); ++k)
+            if (selectedMark_ && all[k].id == *selectedMark_) i = static_cast<int>(k);
+        i = i < 0 ? (delta > 0 ? 0 : static_cast<int>(all.size()) - 1) : std::clamp(i + delta, 0, static_cast<int>(all.size()) - 1);
+        goToMark(all[static_cast<std::size_t>(i)].id, false);
+    };
+    markActions_.push_back(addAction(marks, tr("Next mark in the take"), QKeySequence(Qt::CTRL | Qt::Key_Right),
+                                     [stepMark] { stepMark(1); }));
+    markActions_.push_back(addAction(marks, tr("Previous mark in the take"), QKeySequence(Qt::CTRL | Qt::Key_Left),
+                                     [stepMark] { stepMark(-1); }));
+    marks->addSeparator();
+    sessionActions_.push_back(addAction(marks, tr("Show the session's mark list"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_M), [this] {
+        if (auto* dock = findChild<QDockWidget*>("markListDock")) dock->setVisible(!dock->isVisible());
+    }));
+    sessionActions_.push_back(addAction(marks, tr("Show the mark inspector"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_I), [this] {
+        if (auto* dock = findChild<QDockWidget*>("markDock")) dock->setVisible(!dock->isVisible());
+    }));
+
+    QMenu* tiers = menuBar()->addMenu(tr("T&iers"));
+    tierActions_.push_back(addAction(tiers, tr("Tier commands act on words / phones"), QKeySequence(Qt::Key_W), [this] {
+        activeTier_ = activeTier() == tierLanes_.front() ? tierLanes_.back() : tierLanes_.front();
+        notify(tr("Tier commands now act on %1").arg(activeTier_->tierName()), 3000);
+    }));
+    tierActions_.push_back(addAction(tiers, tr("Split the interval at the cursor"), QKeySequence(Qt::Key_S), [this] { splitAtCursor(); }));
+    tierActions_.push_back(addAction(tiers, tr("Merge with the next interval"), QKeySequence(Qt::Key_J),
+                                     [this] { mergeWithNext(); }));
+    tierActions_.push_back(addAction(tiers, tr("Edit the label at the cursor"), QKeySequence(Qt::Key_E), [this] { editLabelAtCursor(); }));
+    tierActions_.push_back(addAction(tiers, tr("Insert an interval over the selection"), QKeySequence(Qt::SHIFT | Qt::Key_I),
+                                     [this] { insertIntervalOverSelection(); }));
+    tierActions_.push_back(addAction(tiers, tr("Delete the interval at the cursor"), QKeySequence(Qt::SHIFT | Qt::Key_Delete),
+                                     [this] { deleteIntervalAtCursor(); }));
+    tiers->addSeparator();
+    tierActions_.push_back(addAction(tiers, tr("Align words from text…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_A),
+                                     [this] { openAlignDialog(); }));
+    addToggle(tiers, tr("Snap dragged boundaries to zero crossings"), QKeySequence(Qt::Key_G), false,
+              [this](bool on) { snapToZero_ = on; });
+    updateSessionActions();
 }
 
 }  // namespace earmark::gui

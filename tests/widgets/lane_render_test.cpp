@@ -6,6 +6,7 @@
 #include "earmark/widgets/spectrogram_lane.hpp"
 #include "earmark/widgets/time_ruler_lane.hpp"
 #include "earmark/widgets/waveform_lane.hpp"
+#include "image_checks.hpp"
 #include "sample_take.hpp"
 
 #include <QApplication>
@@ -31,19 +32,8 @@ QImage render(Lane& lane) {
     return lane.grab().toImage();
 }
 
-int distinctColours(const QImage& image, const QRect& area) {
-    QSet<QRgb> colours;
-    for (int y = area.top(); y <= area.bottom(); ++y)
-        for (int x = area.left(); x <= area.right(); ++x) colours.insert(image.pixel(x, y));
-    return colours.size();
-}
-
-int differingPixels(const QImage& a, const QImage& b) {
-    int n = 0;
-    for (int y = 0; y < std::min(a.height(), b.height()); ++y)
-        for (int x = 0; x < std::min(a.width(), b.width()); ++x) n += a.pixel(x, y) != b.pixel(x, y);
-    return n;
-}
+using test::differingPixels;
+using test::distinctColours;
 
 using LaneFactory = std::function<std::unique_ptr<Lane>(ViewState*)>;
 

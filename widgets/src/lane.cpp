@@ -31,6 +31,7 @@ LaneColours LaneColours::from(const QPalette& p) {
     c.playhead = dark ? QColor(255, 92, 92) : QColor(214, 30, 40);
     c.hover = c.text;
     c.hover.setAlpha(90);
+    c.guide = dark ? QColor(236, 210, 120, 150) : QColor(150, 110, 0, 140);
     return c;
 }
 
@@ -58,6 +59,10 @@ protected:
                 const double x0 = xOf(sel->start), x1 = xOf(sel->end);
                 p.fillRect(QRectF(x0, area.top(), std::max(x1 - x0, 1.0), area.height()), c.selection);
             }
+        }
+        if (!v->guides().empty()) {
+            p.setPen(QPen(c.guide, 1));
+            for (double g : v->guides()) p.drawLine(QPointF(xOf(g), area.top()), QPointF(xOf(g), area.bottom()));
         }
         if (const auto h = v->hoverTime()) {
             p.setPen(QPen(c.hover, 1, Qt::DotLine));
@@ -92,6 +97,7 @@ Lane::Lane(const QString& id, const QString& title, ViewState* view, QWidget* pa
     connect(view, &ViewState::selectionChanged, overlay_, repaintOverlay);
     connect(view, &ViewState::hoverChanged, overlay_, repaintOverlay);
     connect(view, &ViewState::playheadChanged, overlay_, repaintOverlay);
+    connect(view, &ViewState::guidesChanged, overlay_, repaintOverlay);
 }
 
 Lane::~Lane() = default;

@@ -11,6 +11,7 @@ void ViewState::resetForDuration(double seconds) {
     selection_.reset();
     hover_.reset();
     playhead_.reset();
+    guides_.clear();
     emit durationChanged(limits_.duration);
     emit visibleRangeChanged(visible_);
     emit cursorChanged(cursor_);
@@ -80,6 +81,12 @@ void ViewState::setPlayhead(std::optional<double> t) {
     if (t == playhead_) return;
     playhead_ = t;
     emit playheadChanged();
+}
+
+void ViewState::setGuides(std::vector<double> times) {
+    if (times == guides_) return;
+    guides_ = std::move(times);
+    emit guidesChanged();
 }
 
 }  // namespace earmark::widgets

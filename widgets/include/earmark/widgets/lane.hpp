@@ -27,7 +27,7 @@ void drawTitleChip(QPainter& painter, const QWidget& lane, const QString& text);
 // lanes follow the desktop's light or dark theme.
 struct LaneColours {
     QColor background, text, faintText, grid, waveform, pitch, energy, confidence;
-    QColor selection, cursor, playhead, hover;
+    QColor selection, cursor, playhead, hover, guide;
     static LaneColours from(const QPalette& palette);
 };
 

@@ -13,6 +13,7 @@
 #include <QString>
 
 #include <optional>
+#include <vector>
 
 namespace earmark::widgets {
 
@@ -31,6 +32,9 @@ public:
     std::optional<TimeRange> selection() const { return selection_; }
     std::optional<double> hoverTime() const { return hover_; }
     std::optional<double> playhead() const { return playhead_; }
+    // Thin vertical guides drawn through every lane (s), e.g. the boundaries
+    // of the tier interval under the pointer; empty when none.
+    const std::vector<double>& guides() const { return guides_; }
 
     void setVisibleRange(TimeRange r);  // clamped to the take
     void zoom(double factor, double anchorSeconds);
@@ -48,6 +52,7 @@ public:
     void setSelection(std::optional<TimeRange> s);  // clamped; empty spans clear it
     void setHoverTime(std::optional<double> t);
     void setPlayhead(std::optional<double> t);
+    void setGuides(std::vector<double> times);
 
 signals:
     void visibleRangeChanged(earmark::widgets::TimeRange range);
@@ -55,6 +60,7 @@ signals:
     void selectionChanged();
     void hoverChanged();
     void playheadChanged();
+    void guidesChanged();
     void durationChanged(double seconds);
 
 private:
@@ -66,6 +72,7 @@ private:
     std::optional<TimeRange> selection_;
     std::optional<double> hover_;
     std::optional<double> playhead_;
+    std::vector<double> guides_;
 };
 
 }  // namespace earmark::widgets

@@ -1,0 +1,73 @@
+// A tier lane: one tier of a take (words or phones) as labelled intervals
+// under the signal lanes. Click an interval to select its span, double-click
+// to select and play it; Shift-click widens the selection over another one. Hovering an interval draws its two boundaries as
+// guides through every lane. Words whose confidence is below 0.5 are tinted.
+//
+// Editing: drag a boundary (optionally snapped by a function the window
+// gives, e.g. to a zero crossing); double-click with Ctrl, or editLabel(),
+// edits a label in place. The lane never changes its own tier: it emits the
+// edited tier (editRequested) and the window pushes it on the undo stack and
+// calls setTier() back.
+#pragma once
+
+#include "earmark/tiers/tier.hpp"
+#include "earmark/widgets/span_lane.hpp"
+#include "earmark/widgets/tier_editing.hpp"
+
+#include <functional>
+
+class QLineEdit;
+
+namespace earmark::widgets {
+
+// Below this word confidence (0…1) an interval is drawn as doubtful.
+inline constexpr double kLowConfidence = 0.5;
+
+class TierLane : public SpanLane {
+    Q_OBJECT
+public:
+    // `tierName` is the tier shown ("words", "phones"); `title` labels the lane.
+    TierLane(const QString& tierName, const QString& title, ViewState* view, QWidget* parent = nullptr);
+    QSize sizeHint() const override { return QSize(400, 30); }
+    QString describePoint(QPoint pos) const override;
+    bool followsVisibleRange() const override { return true; }
+
+    const QString& tierName() const { return tierName_; }
+    void setTier(const Tier& tier);  // an empty tier (no intervals) shows a hint
+    const Tier& tier() const { return tier_; }
+    // Where boundaries land when dragged: identity when not set.
+    void setSnap(std::function<double(double)> snap) { snap_ = std::move(snap); }
+    // Opens an in-place editor over interval `index`.
+    void editLabel(int index);
+    QLineEdit* labelEditor() const { return editor_; }
+
+signals:
+    void editRequested(const QString& description, const earmark::Tier& after);
+    void playRequested();   // double-click: play the selected interval
+    void activated();       // clicked: the window's tier commands act on this lane
+
+protected:
+    void drawContent(QPainter& painter) override;
+    void mousePressEvent(QMouseEvent* event) override;
+    void mouseMoveEvent(QMouseEvent* event) override;
+    void mouseReleaseEvent(QMouseEvent* event) override;
+    void mouseDoubleClickEvent(QMouseEvent* event) override;
+    void leaveEvent(QEvent* event) override;
+
+private:
+    std::optional<TierBoundary> boundaryNear(double x) const;
+    void selectInterval(int index);
+
+    QString tierName_;
+    Tier tier_;
+    std::function<double(double)> snap_;
+    std::optional<TierBoundary> dragging_;
+    double dragTime_ = 0.0;
+    QPoint pressPos_;
+    bool pressed_ = false;
+    QLineEdit* editor_ = nullptr;
+};
+
+}  // namespace earmark::widgets
+
+Q_DECLARE_METATYPE(earmark::Tier)
