@@ -25,8 +25,14 @@ std::string wordsCovered(const std::vector<TierRow>& tiers, double startSeconds,
     });
     if (!byMiddle.empty()) return byMiddle;
     // A span inside one word, or across a boundary without reaching either
-    // middle: the words it touches.
-    return join([&](const TierRow& w) { return w.endSeconds > startSeconds && w.startSeconds < endSeconds; });
+    // middle: the words it really overlaps — at least a quarter of the shorter
+    // of span and word, so a pause that grazes the next word by a few
+    // milliseconds names no word.
+    return join([&](const TierRow& w) {
+        const double overlap = std::min(w.endSeconds, endSeconds) - std::max(w.startSeconds, startSeconds);
+        const double shorter = std::min(endSeconds - startSeconds, w.endSeconds - w.startSeconds);
+        return overlap > 0 && overlap >= 0.25 * shorter;
+    });
 }
 
 }  // namespace earmark
