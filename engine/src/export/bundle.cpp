@@ -7,10 +7,14 @@
 #include <unistd.h>
 
 #include <algorithm>
+#include <array>
 #include <cmath>
+#include <cstdint>
+#include <cstring>
 #include <filesystem>
 #include <fstream>
 #include <numbers>
+#include <optional>
 
 namespace earmark {
 namespace {
@@ -28,6 +32,23 @@ bool isEarmarkBundle(const fs::path& dir) {
     if (!in) return false;
     const auto j = nlohmann::json::parse(in, nullptr, false);
     return j.is_object() && j.value("format", "") == "earmark-bundle";
+}
+
+// Width and height (px) from a PNG's IHDR chunk, which the PNG specification
+// (W3C / ISO/IEC 15948, §5.2 and §11.2.2) puts right after the 8-byte
+// signature; nothing if the file is not a PNG. The manifest records what was
+// written, not what was asked for.
+std::optional<std::array<std::uint32_t, 2>> pngSize(const fs::path& path) {
+    std::ifstream in(path, std::ios::binary);
+    unsigned char h[24];
+    if (!in.read(reinterpret_cast<char*>(h), sizeof h)) return std::nullopt;
+    static constexpr unsigned char kSignature[8] = {0x89, 'P', 'N', 'G', '\r', '\n', 0x1a, '\n'};
+    if (std::memcmp(h, kSignature, 8) != 0 || std::memcmp(h + 12, "IHDR", 4) != 0) return std::nullopt;
+    auto bigEndian = [&](int at) {
+        return (std::uint32_t{h[at]} << 24) | (std::uint32_t{h[at + 1]} << 16) | (std::uint32_t{h[at + 2]} << 8) |
+               std::uint32_t{h[at + 3]};
+    };
+    return std::array<std::uint32_t, 2>{bigEndian(16), bigEndian(20)};
 }
 
 // Refuses before any work is done, so a refused export costs nothing.
@@ -134,6 +155,14 @@ void BundleParams::validate() const {
         throw ParamError("BundleParams.padSeconds", "must be between 0 and 10 s");
     if (!(fadeSeconds >= 0 && fadeSeconds <= 10))
         throw ParamError("BundleParams.fadeSeconds", "must be between 0 and 10 s");
+    if (imageWidthPx < kMinImageWidthPx || imageWidthPx > kMaxImageSidePx)
+        throw ParamError("BundleParams.imageWidthPx", "must be between " + std::to_string(kMinImageWidthPx) +
+                                                          " and " + std::to_string(kMaxImageSidePx) + " px, not " +
+                                                          std::to_string(imageWidthPx));
+    if (imageHeightPx < kMinImageHeightPx || imageHeightPx > kMaxImageSidePx)
+        throw ParamError("BundleParams.imageHeightPx", "must be between " + std::to_string(kMinImageHeightPx) +
+                                                           " and " + std::to_string(kMaxImageSidePx) + " px, not " +
+                                                           std::to_string(imageHeightPx));
 }
 
 Signal cutClip(const Signal& take, double startSeconds, double endSeconds, double padSeconds, double fadeSeconds,
@@ -182,6 +211,14 @@ BundleResult writeBundle(const Session& session, const std::string& folder, cons
     manifest["format"] = "earmark-bundle";
     manifest["pad_s"] = params.padSeconds;
     manifest["fade_s"] = params.fadeSeconds;
+    if (renderImage)
+        manifest["images"] = ordered_json{{"drawn", true}, {"width_px", params.imageWidthPx},
+                                          {"height_px", params.imageHeightPx}};
+    else
+        manifest["images"] = ordered_json{
+            {"drawn", false},
+            {"reason", params.noImagesReason.empty() ? "the exporting program draws no pictures"
+                                                     : params.noImagesReason}};
     const auto measureNames = list.measureNames();
     auto csvHeader = defectCsvHeader(measureNames);
     for (const char* extra : {"clip_file", "clip_start_s", "clip_end_s", "image_file"}) csvHeader.push_back(extra);
@@ -207,12 +244,15 @@ BundleResult writeBundle(const Session& session, const std::string& folder, cons
         ++result.clips;
 
         std::string imageFile;
+        std::optional<std::array<std::uint32_t, 2>> imageSize;
         if (renderImage) {
             const std::string candidate = "images/" + base + ".png";
             renderImage(BundleImageRequest{row.take, row.mark, audio->signal, clipStart, clipEnd,
-                                           (staging.path() / candidate).string()});
+                                           (staging.path() / candidate).string(), params.imageWidthPx,
+                                           params.imageHeightPx});
             if (fs::is_regular_file(staging.path() / candidate, ec)) {
                 imageFile = candidate;
+                imageSize = pngSize(staging.path() / candidate);
                 ++result.images;
             }
         }
@@ -224,6 +264,8 @@ BundleResult writeBundle(const Session& session, const std::string& folder, cons
             {"sample_rate", clip.sampleRate},
             {"frames", clip.size()},
             {"image", imageFile.empty() ? ordered_json(nullptr) : ordered_json(imageFile)},
+            {"image_width_px", imageSize ? ordered_json((*imageSize)[0]) : ordered_json(nullptr)},
+            {"image_height_px", imageSize ? ordered_json((*imageSize)[1]) : ordered_json(nullptr)},
         };
         auto fields = defectCsvFields(row, measureNames);
         fields.insert(fields.end(), {clipFile, formatNumber(clipStart), formatNumber(clipEnd), imageFile});

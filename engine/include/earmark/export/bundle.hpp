@@ -9,7 +9,10 @@
 //   DIR/clips/*.wav     one clip per mark: the span ± padding, clamped to the
 //                       take, mono (channels mixed), at the take's own sample
 //                       rate, with a short raised-cosine fade in and out
-//   DIR/images/*.png    one picture per mark, when an image renderer is given
+//   DIR/images/*.png    one picture per mark, when an image renderer is given;
+//                       manifest.json says whether pictures were drawn (top-level
+//                       "images") and each clip's picture size (read back from
+//                       the PNG header)
 //
 // The bundle is built in a sibling folder and moved into place at the end, so
 // a failed or cancelled export leaves no half bundle. An existing folder is
@@ -34,8 +37,16 @@ struct BundleParams {
                                  // avoids an audible click where the cut lands mid-waveform)
     bool replaceExisting = false;
     WavEncoding encoding = WavEncoding::Pcm16;
+    int imageWidthPx = 1200;     // picture size asked of the image renderer (px)
+    int imageHeightPx = 700;
+    std::string noImagesReason;  // why there are no pictures, for the manifest when no renderer is given
 
-    // Throws ParamError("BundleParams.padSeconds" / ".fadeSeconds"): both must be in [0, 10] s.
+    static constexpr int kMinImageWidthPx = 400;
+    static constexpr int kMinImageHeightPx = 300;
+    static constexpr int kMaxImageSidePx = 8000;
+
+    // Throws ParamError("BundleParams.padSeconds" / ".fadeSeconds"): both must be in [0, 10] s;
+    // ("BundleParams.imageWidthPx" / ".imageHeightPx"): within the limits above.
     void validate() const;
 };
 
@@ -47,6 +58,8 @@ struct BundleImageRequest {
     double clipStartSeconds;  // the clip's span within the take
     double clipEndSeconds;
     std::string pngPath;      // where to write the picture (inside the folder being built)
+    int widthPx = 1200;       // the picture size asked for (BundleParams::imageWidthPx, imageHeightPx)
+    int heightPx = 700;
 };
 
 // Draws one picture per mark (the window provides one that renders its
