@@ -40,7 +40,7 @@ void Arguments::parse(const std::vector<std::string>& args) {
         if (!spec) throw UsageError("unknown option --" + name + " (see earmark-cli " + command_ + " --help)");
         if (spec->placeholder.empty()) {
             if (inlineValue) throw UsageError("option --" + name + " takes no value");
-            values_[name] = "1";
+            values_.insert_or_assign(name, std::string(1, '1'));  // not = "1": GCC 12 warns falsely (-Wrestrict)
             continue;
         }
         if (inlineValue) {

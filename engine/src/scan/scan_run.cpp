@@ -70,7 +70,7 @@ ScanRun runScan(const std::vector<ScanItem>& items, const ScanSettings& settings
     std::atomic<bool> stop{false};
     std::mutex mutex;
     std::condition_variable wake;
-    std::size_t done = 0, running = static_cast<std::size_t>(jobs);
+    std::size_t done = 0, observed = 0, running = static_cast<std::size_t>(jobs);
     double audioSeconds = 0.0;
     std::exception_ptr failure;
 
@@ -84,9 +84,13 @@ ScanRun runScan(const std::vector<ScanItem>& items, const ScanSettings& settings
                 ScanRow row = scanTake(items[i], settings, progress);
                 const double seconds = row.measures ? row.measures->durationS : 0.0;
                 slots[i] = std::move(row);
-                std::lock_guard lock(mutex);
-                ++done;
+                std::unique_lock lock(mutex);
+                const std::size_t mine = ++done;
                 audioSeconds += seconds;
+                wake.notify_all();
+                // With an observer, the next take starts only after it has seen
+                // this one: a stop it asks for then takes effect at once.
+                if (observer) wake.wait(lock, [&] { return observed >= mine || stop.load(); });
             }
         } catch (const Cancelled&) {
             // Stop asked: the take in hand is dropped.
@@ -116,13 +120,15 @@ ScanRun runScan(const std::vector<ScanItem>& items, const ScanSettings& settings
         std::unique_lock lock(mutex);
         const auto interval = std::chrono::duration<double>(std::max(0.01, intervalSeconds));
         while (running > 0) {
-            wake.wait_for(lock, interval);
+            wake.wait_for(lock, interval, [&] { return running == 0 || (observer && done != observed); });
             if (observer && running > 0) {
                 const ScanProgress p = snapshot();
                 lock.unlock();
                 const bool goOn = observer(p);
                 lock.lock();
                 if (!goOn) stop = true;
+                observed = std::max(observed, p.done);
+                wake.notify_all();
             }
         }
     }

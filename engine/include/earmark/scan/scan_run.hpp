@@ -60,7 +60,10 @@ struct ScanRun {
     bool partial = false;           // stopped before every item was scanned
 };
 
-// Runs scanTake over the items on settings.jobs threads. Rows have no
+// Runs scanTake over the items on settings.jobs threads. The observer is
+// called on the calling thread after every finished take and at least every
+// intervalSeconds; when it returns false no further take is started and the
+// takes in hand are dropped. Rows have no
 // set-level suspects yet (see applySetRules). Throws ParamError for invalid
 // rules or analysis parameters before any work starts.
 ScanRun runScan(const std::vector<ScanItem>& items, const ScanSettings& settings,
