@@ -17,6 +17,17 @@ void writeTextOutput(const std::string& path, const std::string& text) {
         std::fflush(stdout);
         return;
     }
+    std::error_code kind;
+    const auto status = std::filesystem::status(path, kind);
+    if (!kind && std::filesystem::exists(status) && !std::filesystem::is_regular_file(status)) {
+        // A device or pipe (/dev/null, /dev/stdout, a FIFO): write straight to
+        // it; renaming a temporary file over it would replace the device.
+        std::ofstream out(path, std::ios::binary);
+        out << text << '\n';
+        out.flush();
+        if (!out) throw Error(path, std::string("cannot be written: ") + std::strerror(errno));
+        return;
+    }
     const std::string temp = path + ".part";
     {
         std::ofstream out(temp, std::ios::binary | std::ios::trunc);

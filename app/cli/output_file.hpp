@@ -1,5 +1,6 @@
 // Writing command output: "-" means stdout; files are written to a temporary
 // name next to the target and renamed, so a failed run never leaves half a file.
+// Devices and pipes (/dev/null, /dev/stdout) are written to directly.
 #pragma once
 
 #include <string>

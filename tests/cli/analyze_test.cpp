@@ -11,6 +11,7 @@
 #include <sndfile.h>
 
 #include <cmath>
+#include <filesystem>
 #include <fstream>
 #include <limits>
 
@@ -168,6 +169,24 @@ TEST(AnalyzeCli, EdgeCaseFilesSucceed) {
             EXPECT_NEAR(j["summary"]["f0_median_hz"].get<double>(), 200.0 + (name[0] == 's' ? 20.0 : 0.0), 2.0) << name;
         }
     }
+}
+
+}  // namespace
+}  // namespace earmark
+
+namespace earmark {
+namespace {
+
+// Output to a device must go to the device: an atomic rename over /dev/null
+// would replace it with a regular file for every program on the machine.
+TEST(AnalyzeCli, JsonToADeviceLeavesTheDeviceInPlace) {
+    TempDir dir;
+    Signal s = test::sine(200, 0.5, 16000, 0.5);
+    const std::string path = dir.file("tone.wav");
+    writeWav(path, s);
+    const auto r = test::runCli({"analyze", path, "--json", "/dev/null"});
+    EXPECT_EQ(r.exitCode, 0) << r.err;
+    EXPECT_TRUE(std::filesystem::is_character_file("/dev/null"));
 }
 
 }  // namespace
