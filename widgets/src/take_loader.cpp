@@ -28,7 +28,7 @@ TakeTracksPtr analyseTake(const TakeAudio& audio, const AnalysisSettings& settin
     // The mel spectrogram is computed on its own below, so that settings it
     // cannot use (too many bands for the FFT) cost only the mel view.
     params.tracks.mel = false;
-    TakeAnalysis analysis = analyseSignal(audio.signal, params, progress.sub(0.0, 0.6));
+    TakeAnalysis analysis = analyseSignal(audio.signal, params, progress.sub(0.0, 0.6), KeepSignal::No);
     auto tracks = std::make_shared<TakeTracks>();
     tracks->pitch = std::move(analysis.pitch);
     tracks->pitchSummary = analysis.pitchSummary;

@@ -20,7 +20,7 @@ double percentile(std::vector<float> values, double p) {
 }
 
 // Runs the tracks that only need the mono signal.
-void analyseTracks(TakeAnalysis& out, const AnalysisParams& params, Progress progress) {
+void analyseTracks(TakeAnalysis& out, const Signal& signal, const AnalysisParams& params, Progress progress) {
     const auto& t = params.tracks;
     const double total = (t.f0 ? 6.0 : 0.0) + (t.mel ? 3.0 : 0.0) + (t.energy ? 1.0 : 0.0);
     double at = 0.0;
@@ -30,16 +30,16 @@ void analyseTracks(TakeAnalysis& out, const AnalysisParams& params, Progress pro
         return p;
     };
     if (t.f0) {
-        out.pitch = analysePitch(out.signal, params.pitch, step(6.0));
+        out.pitch = analysePitch(signal, params.pitch, step(6.0));
         out.pitchSummary = summarisePitch(*out.pitch);
     }
-    if (t.energy) out.energy = analyseEnergy(out.signal, params.energy, step(1.0));
+    if (t.energy) out.energy = analyseEnergy(signal, params.energy, step(1.0));
     if (t.mel) {
-        const double melRate = params.melRateFor(out.signal.sampleRate);
-        if (melRate == out.signal.sampleRate) {
-            out.mel = computeMelSpectrogram(out.signal, params.mel, step(3.0));
+        const double melRate = params.melRateFor(signal.sampleRate);
+        if (melRate == signal.sampleRate) {
+            out.mel = computeMelSpectrogram(signal, params.mel, step(3.0));
         } else {
-            out.mel = computeMelSpectrogram(resample(out.signal, melRate), params.mel, step(3.0));
+            out.mel = computeMelSpectrogram(resample(signal, melRate), params.mel, step(3.0));
         }
     }
     progress.report(1.0);
@@ -86,17 +86,18 @@ TakeAnalysis analyseFile(const std::string& path, const AnalysisParams& params, 
     out.signal = std::move(loaded.signal);
     out.sampleStats = stats.result();
     if (loudness) out.loudnessLufs = loudness->integratedLufs();
-    analyseTracks(out, params, progress.sub(0.15, 1.0));
+    analyseTracks(out, out.signal, params, progress.sub(0.15, 1.0));
     return out;
 }
 
-TakeAnalysis analyseSignal(const Signal& signal, const AnalysisParams& params, Progress progress) {
+TakeAnalysis analyseSignal(const Signal& signal, const AnalysisParams& params, Progress progress,
+                           KeepSignal keep) {
     params.validate(signal.sampleRate);
     TakeAnalysis out;
     out.info.sampleRate = signal.sampleRate;
     out.info.channels = 1;
     out.info.frames = static_cast<std::int64_t>(signal.size());
-    out.signal = signal;
+    if (keep == KeepSignal::Copy) out.signal = signal;
     SampleStatsMeter stats(1);
     stats.addInterleaved(signal.samples.data(), static_cast<std::int64_t>(signal.size()));
     out.sampleStats = stats.result();
@@ -104,7 +105,7 @@ TakeAnalysis analyseSignal(const Signal& signal, const AnalysisParams& params, P
         out.loudnessLufs = integratedLoudnessLufs(signal.samples.data(),
                                                   static_cast<std::int64_t>(signal.size()),
                                                   signal.sampleRate);
-    analyseTracks(out, params, progress);
+    analyseTracks(out, signal, params, progress);
     return out;
 }
 

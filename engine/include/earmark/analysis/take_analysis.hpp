@@ -62,8 +62,15 @@ PitchSummary summarisePitch(const PitchTrack& track);
 TakeAnalysis analyseFile(const std::string& path, const AnalysisParams& params = {},
                          Progress progress = {});
 
+// Whether analyseSignal keeps a copy of the signal in its result.
+enum class KeepSignal {
+    Copy,  // result.signal is a copy of the input
+    No,    // result.signal stays empty: for callers that already hold the signal
+           // (the window), so an hour-long take is not held twice
+};
+
 // Same, for a signal already in memory (loudness and stats on that mono signal).
 TakeAnalysis analyseSignal(const Signal& signal, const AnalysisParams& params = {},
-                           Progress progress = {});
+                           Progress progress = {}, KeepSignal keep = KeepSignal::Copy);
 
 }  // namespace earmark
