@@ -14,11 +14,7 @@ int runActions(const std::string& command, const std::map<std::string, Action>& 
     if (it == actions.end())
         throw UsageError("unknown action '" + argv[0] + "' (see earmark-cli " + command + " --help)");
     Arguments args(command + " " + it->first, it->second.synopsis, it->second.options);
-    args.parse({argv.begin() + 1, argv.end()});
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp({argv.begin() + 1, argv.end()})) return kExitOk;
     return it->second.run(args);
 }
 

@@ -72,11 +72,7 @@ void printSummary(const std::string& path, const AlignResult& r) {
 
 int runAlign(const std::vector<std::string>& argv) {
     Arguments args = makeArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one AUDIO file (see earmark-cli align --help)");
     if (args.has("text") == args.has("text-file"))

@@ -117,11 +117,7 @@ void printSummary(const TakeAnalysis& a) {
 
 int runAnalyze(const std::vector<std::string>& argv) {
     Arguments args = makeArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one AUDIO file (see earmark-cli analyze --help)");
     const std::string path = args.positionals().front();

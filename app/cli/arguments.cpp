@@ -1,6 +1,7 @@
 #include "arguments.hpp"
 
 #include <charconv>
+#include <cstdio>
 #include <cmath>
 #include <sstream>
 
@@ -50,6 +51,12 @@ void Arguments::parse(const std::vector<std::string>& args) {
             values_[name] = args[++i];
         }
     }
+}
+
+bool Arguments::parseOrPrintHelp(const std::vector<std::string>& args) {
+    parse(args);
+    if (help_) std::fputs(helpText().c_str(), stdout);
+    return help_;
 }
 
 std::string Arguments::helpText() const {

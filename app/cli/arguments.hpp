@@ -30,6 +30,9 @@ public:
 
     // Parses argv after the subcommand name. Throws UsageError.
     void parse(const std::vector<std::string>& args);
+    // parse(), then answers --help on stdout; true when help was printed and
+    // the command has nothing more to do.
+    bool parseOrPrintHelp(const std::vector<std::string>& args);
 
     bool helpRequested() const { return help_; }
     std::string helpText() const;

@@ -131,11 +131,7 @@ void printComparison(const std::string& pathA, const std::string& pathB, const T
 
 int runCompare(const std::vector<std::string>& argv) {
     Arguments args = makeArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 2)
         throw UsageError("expects two audio files, A and B (see earmark-cli compare --help)");
     if (args.has("text") && args.has("text-file"))

@@ -103,11 +103,7 @@ private:
 
 int runExport(const std::vector<std::string>& argv) {
     Arguments args = makeArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1) throw UsageError("expects exactly one session FILE (see --help)");
     if (!args.has("csv") && !args.has("json") && !args.has("bundle"))
         throw UsageError("needs at least one of --csv OUT, --json OUT, --bundle DIR");

@@ -28,11 +28,7 @@ int runMerge(const std::vector<std::string>& argv) {
                        {"rules", "FILE", "built in", "thresholds as JSON; use the scan's rules file"},
                        {"session", "FILE", "", "also write the merged queue into this session file"},
                    });
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     const auto& pos = args.positionals();
     if (pos.size() < 2) throw UsageError("expects OUT and at least one PART (see earmark-cli merge --help)");
     const ScanRules rules = args.value("rules") ? loadRules(*args.value("rules")) : ScanRules{};

@@ -156,11 +156,7 @@ void printMelDifference(const std::string& audio, const std::string& path, const
 
 int runMelDiff(const std::vector<std::string>& argv) {
     Arguments args = melDiffArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 2)
         throw UsageError("expects AUDIO and PREDICTED.npy (see earmark-cli model mel-diff --help)");
     const std::string audioPath = args.positionals()[0], npyPath = args.positionals()[1];
@@ -227,11 +223,7 @@ void printAttention(const std::string& path, const AttentionAlignment& a, const 
 
 int runAttention(const std::vector<std::string>& argv) {
     Arguments args = attentionArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects one MATRIX.npy (see earmark-cli model attention --help)");
     if (!args.has("tokens")) throw UsageError("needs --tokens FILE: the input tokens the matrix attends to");

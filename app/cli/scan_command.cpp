@@ -54,11 +54,7 @@ std::string clock(double seconds) {
 
 int runScan(const std::vector<std::string>& argv) {
     Arguments args = makeArguments();
-    args.parse(argv);
-    if (args.helpRequested()) {
-        std::fputs(args.helpText().c_str(), stdout);
-        return kExitOk;
-    }
+    if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one INPUT folder or manifest (see earmark-cli scan --help)");
     ScanSettings settings;
