@@ -2,6 +2,7 @@
 
 #include "earmark/core/error.hpp"
 #include "row_check.hpp"
+#include "json_document.hpp"
 #include "text_util.hpp"
 
 #include <nlohmann/json.hpp>
@@ -9,7 +10,6 @@
 namespace earmark {
 namespace {
 
-using Json = nlohmann::ordered_json;
 using namespace tiers_detail;
 
 double numberField(const Json& item, const char* key, const std::string& row, const std::string& source) {
@@ -40,16 +40,7 @@ Interval readInterval(const Json& item, const std::string& row, const std::strin
 
 LoadedTimings parseTimingsJson(std::string_view text, const std::string& source,
                                const TimingsReadOptions& options) {
-    text = stripBom(text);
-    Json doc;
-    try {
-        doc = Json::parse(text.begin(), text.end());
-    } catch (const Json::parse_error& e) {
-        const TextPosition at = positionOf(text, e.byte > 0 ? e.byte - 1 : 0);
-        throw InputError(source, "line " + std::to_string(at.line) + ", column " + std::to_string(at.column) +
-                                     ": not valid JSON");
-    }
-    if (!doc.is_object()) throw InputError(source, "expected a JSON object with tiers such as \"words\"");
+    const Json doc = parseJsonObject(text, source, "expected a JSON object with tiers such as \"words\"");
 
     LoadedTimings out;
     if (const auto v = doc.find("version"); v != doc.end() && !(v->is_number_integer() && v->get<int>() == 1))

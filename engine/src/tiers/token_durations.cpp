@@ -2,6 +2,7 @@
 
 #include "earmark/core/error.hpp"
 #include "row_check.hpp"
+#include "json_document.hpp"
 #include "text_util.hpp"
 
 #include <nlohmann/json.hpp>
@@ -11,7 +12,6 @@
 namespace earmark {
 namespace {
 
-using Json = nlohmann::ordered_json;
 using namespace tiers_detail;
 
 }  // namespace
@@ -24,16 +24,7 @@ void TokenDurationsParams::validate() const {
 
 LoadedTimings parseTokenDurations(std::string_view text, const std::string& source,
                                   const TimingsReadOptions& options) {
-    text = stripBom(text);
-    Json doc;
-    try {
-        doc = Json::parse(text.begin(), text.end());
-    } catch (const Json::parse_error& e) {
-        const TextPosition at = positionOf(text, e.byte > 0 ? e.byte - 1 : 0);
-        throw InputError(source, "line " + std::to_string(at.line) + ", column " + std::to_string(at.column) +
-                                     ": not valid JSON");
-    }
-    if (!doc.is_object()) throw InputError(source, "expected a JSON object with hop_size, sample_rate and tokens");
+    const Json doc = parseJsonObject(text, source, "expected a JSON object with hop_size, sample_rate and tokens");
     const auto hop = doc.find("hop_size");
     if (hop == doc.end() || !hop->is_number_integer() || hop->get<long long>() < 1)
         throw InputError(source, "'hop_size' is missing or not a whole number of samples >= 1");
