@@ -26,18 +26,13 @@
 namespace earmark {
 namespace {
 
+using test::slurp;
+
 namespace fs = std::filesystem;
 using test::runCli;
 using ::testing::HasSubstr;
 using ::testing::IsEmpty;
 using K = test::VoiceSegment::Kind;
-
-std::string slurp(const fs::path& path) {
-    std::ifstream in(path, std::ios::binary);
-    std::stringstream ss;
-    ss << in.rdbuf();
-    return ss.str();
-}
 
 // Two takes (one with a word tier), three marks.
 struct Scenario {

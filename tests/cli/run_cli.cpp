@@ -22,13 +22,6 @@ std::string shellQuote(const std::string& s) {
     return q + "'";
 }
 
-std::string slurp(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    std::stringstream ss;
-    ss << in.rdbuf();
-    return ss.str();
-}
-
 }  // namespace
 
 CliResult runCli(const std::vector<std::string>& args) {

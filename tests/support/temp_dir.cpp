@@ -1,6 +1,8 @@
 #include "support/temp_dir.hpp"
 
+#include <fstream>
 #include <random>
+#include <sstream>
 #include <stdexcept>
 
 namespace earmark::test {
@@ -21,6 +23,13 @@ TempDir::TempDir() {
 TempDir::~TempDir() {
     std::error_code ec;
     std::filesystem::remove_all(path_, ec);
+}
+
+std::string slurp(const std::filesystem::path& path) {
+    std::ifstream in(path, std::ios::binary);
+    std::stringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
 }
 
 }  // namespace earmark::test

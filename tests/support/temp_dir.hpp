@@ -19,4 +19,7 @@ private:
     std::filesystem::path path_;
 };
 
+// The whole content of a file as bytes ("" when it cannot be read).
+std::string slurp(const std::filesystem::path& path);
+
 }  // namespace earmark::test

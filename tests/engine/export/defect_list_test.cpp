@@ -23,15 +23,9 @@ namespace {
 using ::testing::ElementsAre;
 using ::testing::IsEmpty;
 using test::draftAt;
+using test::slurp;
 using test::TempDir;
 using test::writeTake;
-
-std::string slurp(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    std::stringstream ss;
-    ss << in.rdbuf();
-    return ss.str();
-}
 
 test::SchemaSubset loadSchema() {
     return test::SchemaSubset(

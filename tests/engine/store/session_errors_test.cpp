@@ -21,15 +21,9 @@ namespace {
 namespace fs = std::filesystem;
 using ::testing::HasSubstr;
 using test::draftAt;
+using test::slurp;
 using test::TempDir;
 using test::writeTake;
-
-std::string slurp(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    std::stringstream ss;
-    ss << in.rdbuf();
-    return ss.str();
-}
 
 // The message of the error Session::open throws, or "" if it opened.
 template <typename ErrorType = Error>
