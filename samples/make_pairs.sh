@@ -19,15 +19,8 @@
 #   Runs from any directory; deterministic for the same tool versions.
 set -euo pipefail
 
-here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
-cli="${1:-$here/../build/release/app/cli/earmark-cli}"
-if [[ ! -x "$cli" ]]; then
-    cli="$(command -v earmark-cli || true)"
-fi
-if [[ -z "$cli" ]]; then
-    echo "make_pairs.sh: earmark-cli not found; build it (scripts/build release) or pass its path" >&2
-    exit 1
-fi
+# shellcheck source=find_cli.sh
+source "$(dirname "${BASH_SOURCE[0]}")/find_cli.sh"
 for tool in espeak-ng sox; do
     if ! command -v "$tool" >/dev/null 2>&1; then
         echo "make_pairs.sh: '$tool' not found on PATH (Debian package: $tool)" >&2

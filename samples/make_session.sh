@@ -16,15 +16,8 @@
 # Timestamps differ from run to run; everything else is the same.
 set -euo pipefail
 
-here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
-cli="${1:-$here/../build/release/app/cli/earmark-cli}"
-if [[ ! -x "$cli" ]]; then
-    cli="$(command -v earmark-cli || true)"
-fi
-if [[ -z "$cli" ]]; then
-    echo "make_session.sh: earmark-cli not found; build it (scripts/build release) or pass its path" >&2
-    exit 1
-fi
+# shellcheck source=find_cli.sh
+source "$(dirname "${BASH_SOURCE[0]}")/find_cli.sh"
 cli="$(cd "$(dirname "$cli")" && pwd)/$(basename "$cli")"   # stays valid after the cd below
 
 cd "$here"

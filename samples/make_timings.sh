@@ -10,15 +10,8 @@
 #   earmark-cli on PATH. Runs from any directory.
 set -euo pipefail
 
-here="$(cd "$(dirname "${BASH_SOURCE[0]}")" && pwd)"
-cli="${1:-$here/../build/release/app/cli/earmark-cli}"
-if [[ ! -x "$cli" ]]; then
-    cli="$(command -v earmark-cli || true)"
-fi
-if [[ -z "$cli" ]]; then
-    echo "make_timings.sh: earmark-cli not found; build it (scripts/build release) or pass its path" >&2
-    exit 1
-fi
+# shellcheck source=find_cli.sh
+source "$(dirname "${BASH_SOURCE[0]}")/find_cli.sh"
 
 mkdir -p "$here/timings"
 # lines.csv quotes texts that hold commas (RFC 4180): let Python's csv module
