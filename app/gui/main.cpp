@@ -1,5 +1,13 @@
 // earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--screenshot PATH [--size WxH]]
-//         [--view START:END] [--select START:END]
+//         [--view START:END] [--select START:END] [--predicted-mel FILE.npy]
+//         [--attention FILE.npy --tokens FILE]
+// earmark --compare A B [--text "…" | --words-a FILE --words-b FILE] [--screenshot PATH [--size WxH]]
+//
+// --compare opens the compare window on two takes of the same text (words
+// from the timings files, else aligned from the text, else frame-wise only).
+// --predicted-mel shows a model's predicted mel of the (first) take and its
+// difference from the take's own mel; --attention a model's attention matrix
+// of it with its input tokens. With --screenshot the picture waits for them.
 //
 // A `.earmark` argument opens that review session (its queue, tiers, marks
 // and suspects); --take shows one of its takes first (id, line id or file name),
@@ -9,6 +17,8 @@
 // writes the window to PATH as PNG and exits: 0 on success, 1 when the take
 // could not be shown or the image not written, 2 for bad arguments.
 #include "main_window.hpp"
+
+#include "earmark/widgets/compare_window.hpp"
 
 #include "earmark/widgets/take_list.hpp"
 
@@ -20,6 +30,7 @@
 #include <QTimer>
 
 #include <cstdio>
+#include <memory>
 
 namespace {
 
@@ -56,7 +67,24 @@ int main(int argc, char** argv) {
                                   QStringLiteral("START:END"));
     const QCommandLineOption select(QStringLiteral("select"), QStringLiteral("Selection in seconds, e.g. 1.2:1.6."),
                                     QStringLiteral("START:END"));
-    parser.addOptions({screenshot, size, view, select, takeOption});
+    const QCommandLineOption predictedMel(QStringLiteral("predicted-mel"),
+                                          QStringLiteral("A model's predicted mel spectrogram (.npy) of the take, shown with its difference from the take's own mel."),
+                                          QStringLiteral("FILE.npy"));
+    const QCommandLineOption attention(QStringLiteral("attention"),
+                                       QStringLiteral("A model's attention matrix (.npy, frames × tokens) of the take; needs --tokens."),
+                                       QStringLiteral("FILE.npy"));
+    const QCommandLineOption tokens(QStringLiteral("tokens"),
+                                    QStringLiteral("The attention matrix's input tokens: one per line, or a JSON array of strings."),
+                                    QStringLiteral("FILE"));
+    const QCommandLineOption compare(QStringLiteral("compare"),
+                                     QStringLiteral("Compare two takes of the same text, given as the two arguments A B."));
+    const QCommandLineOption text(QStringLiteral("text"), QStringLiteral("With --compare: the script, to align words from."),
+                                  QStringLiteral("TEXT"));
+    const QCommandLineOption wordsA(QStringLiteral("words-a"), QStringLiteral("With --compare: word timings of take A."),
+                                    QStringLiteral("FILE"));
+    const QCommandLineOption wordsB(QStringLiteral("words-b"), QStringLiteral("With --compare: word timings of take B."),
+                                    QStringLiteral("FILE"));
+    parser.addOptions({screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB});
     parser.process(app);
 
     const QRegularExpression sizeRe(QStringLiteral("^(\\d+)x(\\d+)$"));
@@ -79,7 +107,34 @@ int main(int argc, char** argv) {
     if (parser.isSet(select) && !(selection = parseSpan(select)))
         return fail(QStringLiteral("--select wants START:END in seconds with END > START >= 0"), 2);
 
+    if (parser.isSet(attention) != parser.isSet(tokens))
+        return fail(QStringLiteral("--attention and --tokens go together"), 2);
+
     const QStringList arguments = parser.positionalArguments();
+    if (parser.isSet(compare)) {
+        if (arguments.size() != 2) return fail(QStringLiteral("--compare wants two takes: A B"), 2);
+        earmark::widgets::TakePairRequest request{arguments[0], arguments[1], parser.value(text), parser.value(wordsA),
+                                                  parser.value(wordsB)};
+        QTemporaryDir compareSettings;
+        earmark::widgets::CompareWindow window;
+        int exitCode = 0;
+        if (parser.isSet(screenshot)) {
+            const QString path = parser.value(screenshot);
+            QObject::connect(&window, &earmark::widgets::CompareWindow::pairSettled, &app, [&, path](bool ok, const QString& message) {
+                if (!ok) fail(message, 1);
+                QTimer::singleShot(50, &app, [&, path, ok] {
+                    exitCode = window.grab().save(path, "PNG") && ok ? 0 : 1;
+                    window.close();
+                    app.quit();
+                });
+            });
+        }
+        window.resize(windowSize);
+        window.show();
+        window.open(request);
+        const int code = app.exec();
+        return parser.isSet(screenshot) ? exitCode : code;
+    }
     QString sessionPath;
     if (arguments.size() == 1 && arguments.front().endsWith(QStringLiteral(".earmark"), Qt::CaseInsensitive))
         sessionPath = arguments.front();
@@ -105,21 +160,31 @@ int main(int argc, char** argv) {
     int exitCode = 0;
     if (shooting) {
         const QString path = parser.value(screenshot);
-        QObject::connect(&window, &earmark::gui::MainWindow::takeSettled, &app,
-                         [&, path](bool ok, const QString& message) {
-                             // Let queued plot replots and layout run before grabbing.
-                             QTimer::singleShot(50, &app, [&, path, ok, message] {
-                                 if (!ok) fail(message, 1);
-                                 if (!window.grab().save(path, "PNG")) {
-                                     fail(QStringLiteral("%1: cannot write the image").arg(path), 1);
-                                     exitCode = 1;
-                                 } else {
-                                     exitCode = ok ? 0 : 1;
-                                 }
-                                 window.close();
-                                 app.quit();
-                             });
-                         });
+        // Shoot once the take and (when asked for) the predicted mel have settled.
+        auto pending = std::make_shared<int>(1 + parser.isSet(predictedMel) + parser.isSet(attention));
+        auto allOk = std::make_shared<bool>(true);
+        auto settle = [&, path, pending, allOk](bool ok, const QString& message) {
+            if (*pending <= 0) return;  // already shot
+            *allOk = *allOk && ok;
+            if (!ok) {
+                fail(message, 1);
+                *pending = 1;  // a failure ends the wait: nothing more will come
+            }
+            if (--*pending > 0) return;
+            // Let queued plot replots and layout run before grabbing.
+            QTimer::singleShot(50, &app, [&, path, ok = *allOk] {
+                if (!window.grab().save(path, "PNG")) {
+                    fail(QStringLiteral("%1: cannot write the image").arg(path), 1);
+                    exitCode = 1;
+                } else {
+                    exitCode = ok ? 0 : 1;
+                }
+                window.close();
+                app.quit();
+            });
+        };
+        QObject::connect(&window, &earmark::gui::MainWindow::takeSettled, &app, settle);
+        QObject::connect(&window, &earmark::gui::MainWindow::modelSettled, &app, settle);
         window.resize(windowSize);
     }
     window.show();
@@ -133,6 +198,8 @@ int main(int argc, char** argv) {
     } else {
         window.openTakes(takes);
     }
+    if (parser.isSet(predictedMel)) window.openPredictedMel(parser.value(predictedMel));
+    if (parser.isSet(attention)) window.openAttention(parser.value(attention), parser.value(tokens));
     const int code = app.exec();
     return shooting ? exitCode : code;
 }

@@ -1,5 +1,6 @@
 #include "main_window.hpp"
 
+#include "earmark/widgets/attention_lane.hpp"
 #include "earmark/widgets/audio_player.hpp"
 #include "earmark/widgets/energy_lane.hpp"
 #include "earmark/widgets/help_overlay.hpp"
@@ -7,6 +8,8 @@
 #include "earmark/widgets/lane_stack.hpp"
 #include "earmark/widgets/mark_lane.hpp"
 #include "earmark/widgets/mark_list.hpp"
+#include "earmark/widgets/model_loader.hpp"
+#include "earmark/widgets/model_mel_lane.hpp"
 #include "earmark/widgets/review_queue.hpp"
 #include "earmark/widgets/session_document.hpp"
 #include "earmark/widgets/suspect_lane.hpp"
@@ -58,6 +61,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     view_ = new ViewState(this);
     undo_ = new QUndoStack(this);
     loader_ = new TakeLoader(this);
+    modelLoader_ = new ModelLoader(this);
     player_ = new AudioPlayer(view_, this);
     stack_ = new LaneStack(view_, this);
     setCentralWidget(stack_);
@@ -95,6 +99,12 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
         cancelButton_->setVisible(busy);
         if (busy) progress_->setValue(0);
     });
+    connect(modelLoader_, &ModelLoader::melReady, this, &MainWindow::onModelMel);
+    connect(modelLoader_, &ModelLoader::attentionReady, this, &MainWindow::onAttention);
+    connect(modelLoader_, &ModelLoader::failed, this, [this](ModelJob job, const QString& message) {
+        notify((job == ModelJob::Mel ? tr("Predicted mel: %1") : tr("Attention: %1")).arg(message));
+        emit modelSettled(false, message);
+    });
     connect(player_, &AudioPlayer::message, this, [this](const QString& m) { notify(m, 5000); });
     connect(stack_, &LaneStack::pointDescribed, readout_, &HoverReadout::setLaneDetail);
 
@@ -104,6 +114,8 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
                                .arg(QKeySequence(Qt::CTRL | Qt::Key_O).toString(QKeySequence::NativeText)));
     setAcceptDrops(true);
     stack_->restoreLayout(q);
+    for (Lane* lane : stack_->lanes())
+        if (isModelLane(lane->id())) stack_->setLaneVisible(lane->id(), false);
     restoreGeometry(q.value("window/geometry").toByteArray());
     restoreState(q.value("window/state").toByteArray());
     if (!player_->available()) {
@@ -130,6 +142,16 @@ void MainWindow::buildLanes() {
     stack_->addLane(new WaveformLane(view_), LaneStack::Placement::Resizable, 2);
     spectrogram_ = new SpectrogramLane(view_);
     stack_->addLane(spectrogram_, LaneStack::Placement::Resizable, 4);
+    // The model lanes sit under the take's own spectrogram, shown once a prediction is open.
+    predictedLane_ = new ModelMelLane(ModelMelPart::Predicted, view_);
+    stack_->addLane(predictedLane_, LaneStack::Placement::Resizable, 3);
+    differenceLane_ = new ModelMelLane(ModelMelPart::Difference, view_);
+    stack_->addLane(differenceLane_, LaneStack::Placement::Resizable, 3);
+    connect(spectrogram_, &SpectrogramLane::lookChanged, predictedLane_, &ModelMelLane::setLook);
+    attentionLane_ = new AttentionLane(view_);
+    stack_->addLane(attentionLane_, LaneStack::Placement::Resizable, 3);
+    tokensLane_ = new TierLane(QStringLiteral("tokens"), tr("Tokens"), view_);
+    stack_->addLane(tokensLane_, LaneStack::Placement::Resizable, 0);
     pitch_ = new PitchLane(view_);
     stack_->addLane(pitch_, LaneStack::Placement::Resizable, 2);
     stack_->addLane(new EnergyLane(view_), LaneStack::Placement::Resizable, 1);
@@ -243,6 +265,7 @@ void MainWindow::selectTake(int row) {
     selectedMark_.reset();
     tiers_ = {};
     timingsPath_.clear();
+    closeModelLanes();
     showTiers();
     showMarks();
     player_->setTake(nullptr);
@@ -297,6 +320,7 @@ void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
     }
     updateTakeInfo();
     updateSessionActions();
+    startModelMel();
 }
 
 void MainWindow::onTracks(quint64, TakeTracksPtr tracks) {

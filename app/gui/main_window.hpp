@@ -8,6 +8,8 @@
 #include "earmark/store/take.hpp"
 #include "earmark/tiers/tier.hpp"
 #include "earmark/widgets/analysis_settings.hpp"
+#include "earmark/widgets/model_attention.hpp"
+#include "earmark/widgets/model_mel.hpp"
 #include "earmark/widgets/take_data.hpp"
 #include "earmark/widgets/take_list.hpp"
 #include "earmark/widgets/time_mapping.hpp"
@@ -34,6 +36,9 @@ class AudioPlayer;
 class HelpOverlay;
 class HoverReadout;
 class LaneStack;
+class ModelMelLane;
+class ModelLoader;
+class AttentionLane;
 class MarkInspector;
 class MarkLane;
 class MarkList;
@@ -63,6 +68,19 @@ public:
     bool openSession(const QString& path);
     // Shows a take of the open session (by id, line id or file name); false when unknown.
     bool showSessionTake(const QString& key);
+    // Shows a model's predicted mel spectrogram (.npy) of the current take,
+    // and its difference from the take's own mel, once computed in the
+    // background (modelSettled then). Waits for the take's audio when it
+    // is still loading. Another take drops it.
+    void openPredictedMel(const QString& path);
+    widgets::ModelMelLane* predictedMelLane() const { return predictedLane_; }
+    widgets::ModelMelLane* melDifferenceLane() const { return differenceLane_; }
+    // Shows a model's attention matrix of the current take (decoder frames
+    // by the default hop, 256 samples at 22 050 Hz), its token tier and its
+    // skip/repeat faults; modelSettled when done. Another take drops it.
+    void openAttention(const QString& npyPath, const QString& tokensPath);
+    widgets::AttentionLane* attentionLane() const { return attentionLane_; }
+    widgets::TierLane* tokensLane() const { return tokensLane_; }
     // Reads a timings file as the current take's tiers (undoable).
     bool openTimings(const QString& path);
     // Applied once, when the next take's audio arrives (for --view, --select).
@@ -90,6 +108,8 @@ public:
 signals:
     // The current take is fully shown (tracks arrived) or failed to load.
     void takeSettled(bool ok, const QString& message);
+    // The predicted mel asked for is shown (ok) or could not be read or compared.
+    void modelSettled(bool ok, const QString& message);
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -145,6 +165,16 @@ private:
     void play(int mode);
     void adjustSpectrogram(double floorStep, double rangeStep);
     void updateTakeInfo();
+    void openPredictedMelDialog();
+    void openAttentionDialog();
+    // Take A is the current take (else asked for), then take B and the script.
+    void openCompareDialog();
+    void closeModelLanes();
+    void startModelMel();
+    void onModelMel(widgets::ModelMelPtr mel);
+    void onAttention(widgets::ModelAttentionPtr attention);
+    // Lanes that come and go with a model's output (not in the Lanes menu).
+    bool isModelLane(const QString& id) const;
     // A message in the status bar, cleared after `milliseconds` (0: kept).
     void notify(const QString& text, int milliseconds = 0);
 
@@ -153,6 +183,13 @@ private:
     widgets::LaneStack* stack_ = nullptr;
     widgets::SpectrogramLane* spectrogram_ = nullptr;
     widgets::PitchLane* pitch_ = nullptr;
+    widgets::ModelMelLane* predictedLane_ = nullptr;
+    widgets::ModelMelLane* differenceLane_ = nullptr;
+    widgets::AttentionLane* attentionLane_ = nullptr;
+    widgets::TierLane* tokensLane_ = nullptr;
+    widgets::ModelLoader* modelLoader_ = nullptr;
+    QString modelMelPath_;  // the predicted mel of the current take ("" = none)
+    QAction* melToggle_ = nullptr;
     widgets::HoverReadout* readout_ = nullptr;
     widgets::AudioPlayer* player_ = nullptr;
     widgets::HelpOverlay* help_ = nullptr;

@@ -59,6 +59,12 @@ void MainWindow::buildActions() {
                                      [this] { openTimingsDialog(); }));
     saveTimingsAction_ = addAction(file, tr("Save timings"), QKeySequence(Qt::CTRL | Qt::Key_S),
                                    [this] { saveTimings(); });
+    tierActions_.push_back(addAction(file, tr("Open predicted mel for this take…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_P),
+                                     [this] { openPredictedMelDialog(); }));
+    tierActions_.push_back(addAction(file, tr("Open attention matrix for this take…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_J),
+                                     [this] { openAttentionDialog(); }));
+    addAction(file, tr("Compare with another take…"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_D), [this] { openCompareDialog(); });
+    addAction(file, tr("Close model lanes"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_K), [this] { closeModelLanes(); });
     addAction(file, tr("Export view as image…"), QKeySequence(Qt::CTRL | Qt::Key_E), [this] { exportView(); });
     file->addSeparator();
     addAction(file, tr("Quit"), QKeySequence(Qt::CTRL | Qt::Key_Q), [this] { close(); });
@@ -139,7 +145,8 @@ void MainWindow::buildActions() {
     QMenu* lanes = menuBar()->addMenu(tr("&Lanes"));
     int n = 1;
     for (Lane* lane : stack_->lanes()) {
-        if (lane->id() == "ruler") continue;
+        // The model lanes come and go with a predicted mel (File menu).
+        if (lane->id() == "ruler" || isModelLane(lane->id())) continue;
         const QString id = lane->id();
         QAction* a = addToggle(lanes, tr("Show %1").arg(lane->title().toLower()),
                                QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_0 + n++)), true,
@@ -149,7 +156,7 @@ void MainWindow::buildActions() {
         });
     }
     lanes->addSeparator();
-    addToggle(lanes, tr("Mel spectrogram"), QKeySequence(Qt::Key_M), false, [this](bool on) {
+    melToggle_ = addToggle(lanes, tr("Mel spectrogram"), QKeySequence(Qt::Key_M), false, [this](bool on) {
         SpectrogramLook l = spectrogram_->look();
         l.kind = on ? SpectrogramKind::Mel : SpectrogramKind::Linear;
         spectrogram_->setLook(l);

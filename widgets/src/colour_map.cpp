@@ -50,11 +50,8 @@ OkLab fromLch(double L, double chroma, double hueDeg) {
     return {L, chroma * std::cos(h), chroma * std::sin(h)};
 }
 
-// Step 1 and 2: the path point at t in [0, 1], fitted into the gamut.
-OkLab pathPoint(double t) {
-    const double L = 0.16 + (0.97 - 0.16) * t;
-    const double hue = 285.0 + 170.0 * t;
-    double chroma = 0.17 * std::pow(std::sin(std::numbers::pi * t), 0.7);
+// Step 2: lower the chroma at fixed L and hue until the colour is in gamut.
+OkLab fitted(double L, double chroma, double hue) {
     if (!inGamut(okLabToLinearSrgb(fromLch(L, chroma, hue)))) {
         double lo = 0.0, hi = chroma;
         for (int i = 0; i < 40; ++i) {
@@ -64,6 +61,17 @@ OkLab pathPoint(double t) {
         chroma = lo;
     }
     return fromLch(L, chroma, hue);
+}
+
+// Step 1 and 2 of "dusk": the path point at t in [0, 1].
+OkLab duskPoint(double t) {
+    return fitted(0.16 + (0.97 - 0.16) * t, 0.17 * std::pow(std::sin(std::numbers::pi * t), 0.7), 285.0 + 170.0 * t);
+}
+
+// Step 1 and 2 of "ember", one half: u in [0, 1] is the distance from the centre.
+OkLab emberPoint(double u, bool positive) {
+    const double hue = positive ? 35.0 + 50.0 * u : 250.0 - 35.0 * u;
+    return fitted(0.20 + (0.93 - 0.20) * u, 0.16 * std::pow(std::sin(0.5 * std::numbers::pi * u), 0.8), hue);
 }
 
 double distance(const OkLab& p, const OkLab& q) {
@@ -78,25 +86,56 @@ std::uint32_t toArgb(const OkLab& c) {
     return 0xFF000000u | (byte(rgb.r) << 16) | (byte(rgb.g) << 8) | byte(rgb.b);
 }
 
-std::array<std::uint32_t, 256> buildDusk() {
-    // Step 3: dense path, cumulative arc length, equal-length resampling.
+// Step 3: `count` colours at equal OKLab arc length along path(t), t in [0, 1].
+template <typename Path>
+std::vector<std::uint32_t> resampleByArc(Path path, int count) {
     constexpr int dense = 4096;
     std::vector<OkLab> pts(dense + 1);
     std::vector<double> arc(dense + 1, 0.0);
     for (int i = 0; i <= dense; ++i) {
-        pts[i] = pathPoint(static_cast<double>(i) / dense);
+        pts[i] = path(static_cast<double>(i) / dense);
         if (i > 0) arc[i] = arc[i - 1] + distance(pts[i - 1], pts[i]);
     }
-    std::array<std::uint32_t, 256> out{};
+    std::vector<std::uint32_t> out(static_cast<std::size_t>(count));
     std::size_t j = 0;
-    for (int k = 0; k < 256; ++k) {
-        const double target = arc.back() * k / 255.0;
+    for (int k = 0; k < count; ++k) {
+        const double target = arc.back() * k / (count - 1);
         while (j + 1 < arc.size() - 1 && arc[j + 1] < target) ++j;
         const double seg = arc[j + 1] - arc[j];
         const double f = seg > 0 ? std::clamp((target - arc[j]) / seg, 0.0, 1.0) : 0.0;
         const OkLab p{pts[j].L + f * (pts[j + 1].L - pts[j].L), pts[j].a + f * (pts[j + 1].a - pts[j].a),
                       pts[j].b + f * (pts[j + 1].b - pts[j].b)};
         out[static_cast<std::size_t>(k)] = toArgb(p);
+    }
+    return out;
+}
+
+std::array<std::uint32_t, 256> buildDusk() {
+    const auto v = resampleByArc(duskPoint, 256);
+    std::array<std::uint32_t, 256> out{};
+    std::copy(v.begin(), v.end(), out.begin());
+    return out;
+}
+
+std::array<std::uint32_t, 256> buildEmber() {
+    // Index 128 + k and 127 − k sit at the same distance (k + ½)/128 from the centre.
+    const auto up = resampleByArc([](double t) { return emberPoint(t, true); }, 257);
+    const auto down = resampleByArc([](double t) { return emberPoint(t, false); }, 257);
+    std::array<std::uint32_t, 256> out{};
+    for (std::size_t k = 0; k < 128; ++k) {
+        const std::size_t i = 2 * k + 1;  // arc position (k + ½)/128 of 256 steps
+        out[128 + k] = up[i];
+        out[127 - k] = down[i];
+    }
+    return out;
+}
+
+std::array<OkLab, 256> toOkLab(const std::array<std::uint32_t, 256>& map) {
+    std::array<OkLab, 256> out;
+    for (std::size_t i = 0; i < 256; ++i) {
+        const auto c = map[i];
+        out[i] = linearSrgbToOkLab({srgbDecode(((c >> 16) & 0xFF) / 255.0), srgbDecode(((c >> 8) & 0xFF) / 255.0),
+                                    srgbDecode((c & 0xFF) / 255.0)});
     }
     return out;
 }
@@ -108,15 +147,13 @@ const std::array<std::uint32_t, 256>& duskColourMap() {
     return map;
 }
 
-std::array<OkLab, 256> duskColourMapOkLab() {
-    std::array<OkLab, 256> out;
-    const auto& map = duskColourMap();
-    for (std::size_t i = 0; i < 256; ++i) {
-        const auto c = map[i];
-        out[i] = linearSrgbToOkLab({srgbDecode(((c >> 16) & 0xFF) / 255.0), srgbDecode(((c >> 8) & 0xFF) / 255.0),
-                                    srgbDecode((c & 0xFF) / 255.0)});
-    }
-    return out;
+std::array<OkLab, 256> duskColourMapOkLab() { return toOkLab(duskColourMap()); }
+
+const std::array<std::uint32_t, 256>& emberColourMap() {
+    static const std::array<std::uint32_t, 256> map = buildEmber();
+    return map;
 }
+
+std::array<OkLab, 256> emberColourMapOkLab() { return toOkLab(emberColourMap()); }
 
 }  // namespace earmark::widgets

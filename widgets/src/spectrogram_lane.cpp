@@ -2,6 +2,7 @@
 
 #include "earmark/widgets/axis_painting.hpp"
 #include "earmark/widgets/colour_map.hpp"
+#include "earmark/widgets/spectrogram_painting.hpp"
 
 #include <QPainter>
 #include <QPainterPath>
@@ -46,21 +47,14 @@ double SpectrogramLane::binOfHz(const SpectrogramView& v, double hz) const {
     const auto& c = v.data.binCentresHz;
     if (c.size() < 2) return 0.0;
     if (look_.kind == SpectrogramKind::Linear) return hz / (c[1] - c[0]);
-    // Mel bands are equally spaced on the mel scale: interpolate between centres.
-    const auto it = std::lower_bound(c.begin(), c.end(), hz);
-    if (it == c.begin()) return (hz - c[0]) / (c[1] - c[0]);
-    if (it == c.end()) return c.size() - 1 + (hz - c.back()) / (c.back() - c[c.size() - 2]);
-    const std::size_t i = static_cast<std::size_t>(it - c.begin());
-    return i - 1 + (hz - c[i - 1]) / (c[i] - c[i - 1]);
+    return bandOfHz(c, hz);  // mel bands are equally spaced on the mel scale
 }
 
 double SpectrogramLane::hzOfBin(const SpectrogramView& v, double bin) const {
     const auto& c = v.data.binCentresHz;
     if (c.size() < 2) return 0.0;
     if (look_.kind == SpectrogramKind::Linear) return bin * (c[1] - c[0]);
-    const double b = std::clamp(bin, 0.0, static_cast<double>(c.size() - 1));
-    const auto i = std::min(static_cast<std::size_t>(b), c.size() - 2);
-    return c[i] + (b - i) * (c[i + 1] - c[i]);
+    return hzOfBand(c, bin);
 }
 
 double SpectrogramLane::shownBins(const SpectrogramView& v) const {
@@ -117,37 +111,8 @@ void SpectrogramLane::drawContent(QPainter& p) {
         return;
     }
     const TimeMapping m = mapping();
-    const double hop = v->data.hopSeconds;
     const double shown = shownBins(*v);
-    // Frame i covers [(i − ½)·hop, (i + ½)·hop): image x = t/hop + ½ (columns
-    // of vocoder-padded frames sit half a hop later; their timesSeconds say so).
-    const double offset = v->data.timesSeconds.empty() ? 0.0 : v->data.timesSeconds.front();
-    const double x0 = (m.range.start - offset) / hop + 0.5;
-    const double x1 = (m.range.end - offset) / hop + 0.5;
-    // Pick the pyramid level with at least one column per pixel.
-    const double framesPerPixel = (x1 - x0) / std::max(1, plot.width());
-    const int level = std::clamp(static_cast<int>(std::floor(std::log2(std::max(framesPerPixel, 1.0)))), 0,
-                                 static_cast<int>(v->levels.size()) - 1);
-    const QImage& source = v->levels[static_cast<std::size_t>(level)];
-    const double scale = std::ldexp(1.0, -level);
-    const double lx0 = x0 * scale, lx1 = x1 * scale;
-    const int ix0 = std::clamp(static_cast<int>(std::floor(lx0)), 0, source.width());
-    const int ix1 = std::clamp(static_cast<int>(std::ceil(lx1)), 0, source.width());
-    const int rowTop = v->data.bins - static_cast<int>(std::ceil(shown));
-    if (ix1 > ix0) {
-        QImage part = source.copy(ix0, rowTop, ix1 - ix0, v->data.bins - rowTop);
-        part.setColorTable(colourTable(look_));
-        part = part.convertToFormat(QImage::Format_ARGB32_Premultiplied);  // the fast scaling path
-        const double topFrac = std::ceil(shown) - shown;  // partial top row
-        const QRectF sourceRect(lx0 - ix0, topFrac, lx1 - lx0, shown);
-        const QRectF target(plot.left(), plot.top(), plot.width(), plot.height());
-        // Smooth when columns are finer than pixels, blocky when zoomed in (honest frames).
-        p.setRenderHint(QPainter::SmoothPixmapTransform, (lx1 - lx0) > plot.width());
-        p.save();
-        p.setClipRect(plot);
-        p.drawImage(target, part, sourceRect);
-        p.restore();
-    }
+    paintSpectrogramImage(p, *v, m, plot, colourTable(look_), shown);
 
     if (look_.f0Overlay && tracks()->pitch) {
         const PitchTrack& pt = *tracks()->pitch;
@@ -182,22 +147,12 @@ void SpectrogramLane::drawContent(QPainter& p) {
     // Frequency axis: kHz ticks on a nice step (linear), chosen frequencies (mel).
     std::vector<AxisTick> ticks;
     const double topHz = hzOfBin(*v, shown - 0.5);
-    auto tickLabel = [](double hz) {
-        return hz >= 1000 ? QString::number(hz / 1000.0, 'g', 3) + "k" : QString::number(hz, 'f', 0);
-    };
     if (look_.kind == SpectrogramKind::Linear) {
         const double step = niceStep(topHz * fontMetrics().height() * 2.2 / std::max(1, plot.height()));
-        for (double hz = 0; hz <= topHz + 1e-6; hz += step) ticks.push_back({*yOfHz(hz), tickLabel(hz)});
+        for (double hz = 0; hz <= topHz + 1e-6; hz += step) ticks.push_back({*yOfHz(hz), hzTickLabel(hz)});
     } else {
-        double lastY = 1e9;
-        for (double hz : {0.0, 100.0, 200.0, 300.0, 500.0, 700.0, 1000.0, 1500.0, 2000.0, 3000.0, 4000.0,
-                          5000.0, 6000.0, 8000.0, 11000.0, 16000.0, 22000.0}) {
-            if (hz < v->data.binCentresHz.front() * 0.999 || hz > topHz) continue;
-            const double y = *yOfHz(hz);
-            if (lastY - y < fontMetrics().height() * 1.6) continue;
-            ticks.push_back({y, tickLabel(hz)});
-            lastY = y;
-        }
+        ticks = bandAxisTicks(v->data.binCentresHz, topHz, [this](double hz) { return *yOfHz(hz); },
+                              fontMetrics().height() * 1.6);
     }
     drawVerticalAxis(p, *this, ticks, tr("frequency (Hz)"), false);
     drawTitle(p, label);
@@ -206,24 +161,13 @@ void SpectrogramLane::drawContent(QPainter& p) {
 
 void SpectrogramLane::drawColourBar(QPainter& p, const QRect& plot) const {
     // A small legend of the colour scale in the plot's top-right corner.
-    const auto& map = duskColourMap();
-    const int w = 90, h = 8;
-    const QRect bar(plot.right() - w - 8, plot.top() + 6, w, h);
-    for (int i = 0; i < w; ++i) {
-        p.setPen(QColor::fromRgb(map[static_cast<std::size_t>(i * 255 / (w - 1))]));
-        p.drawLine(bar.left() + i, bar.top(), bar.left() + i, bar.bottom());
-    }
-    p.setPen(QColor(255, 255, 255, 200));
-    p.drawRect(bar.adjusted(0, 0, -1, -1));
+    const QRect bar = widgets::drawColourBar(p, plot, duskColourMap(), 90);
     QFont f = font();
     f.setPointSizeF(f.pointSizeF() * 0.85);
     p.setFont(f);
     const QString text = tr("%1 … %2 dB").arg(look_.floorDb, 0, 'f', 0).arg(look_.floorDb + look_.rangeDb, 0, 'f', 0);
-    const QRect textRect(bar.left() - 120, bar.bottom() + 2, w + 120, QFontMetrics(f).height());
-    p.setPen(QColor(0, 0, 0, 160));
-    p.drawText(textRect.translated(1, 1), Qt::AlignRight, text);
-    p.setPen(Qt::white);
-    p.drawText(textRect, Qt::AlignRight, text);
+    drawShadowedText(p, QRect(bar.left() - 120, bar.bottom() + 2, bar.width() + 120, QFontMetrics(f).height()),
+                     Qt::AlignRight, text);
     p.setFont(font());
 }
 
