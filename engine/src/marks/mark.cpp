@@ -1,6 +1,7 @@
 #include "earmark/marks/mark.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/format.hpp"
 #include "earmark/marks/utf8.hpp"
 
 #include <algorithm>
@@ -10,11 +11,7 @@
 namespace earmark {
 namespace {
 
-std::string seconds(double s) {
-    char buf[48];
-    std::snprintf(buf, sizeof buf, "%.3f s", s);
-    return buf;
-}
+std::string seconds(double s) { return formatSeconds(s); }
 
 // Text typed by a person: valid UTF-8, bounded, and no control characters
 // other than tab and line breaks (they would corrupt one-line displays).

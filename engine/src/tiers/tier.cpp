@@ -1,6 +1,7 @@
 #include "earmark/tiers/tier.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/format.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -9,11 +10,7 @@
 namespace earmark {
 namespace {
 
-std::string seconds(double s) {
-    char buf[48];
-    std::snprintf(buf, sizeof buf, "%.3f s", s);
-    return buf;
-}
+std::string seconds(double s) { return formatSeconds(s); }
 
 std::optional<std::string> intervalProblem(const Interval& iv, const Interval* previous,
                                            std::optional<double> takeDurationS) {
