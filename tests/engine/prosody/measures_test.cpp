@@ -7,6 +7,8 @@
 #include "earmark/prosody/take_measures.hpp"
 #include "earmark/prosody/word_measures.hpp"
 
+#include "prosody_test_util.hpp"
+
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -14,15 +16,8 @@
 namespace earmark {
 namespace {
 
-constexpr double kHop = 0.005;
-
-Interval iv(double a, double b, std::string label) {
-    Interval i;
-    i.startS = a;
-    i.endS = b;
-    i.label = std::move(label);
-    return i;
-}
+constexpr double kHop = test::kProsodyHop;
+using test::iv;
 
 struct Tracks {
     PitchTrack pitch;

@@ -2,6 +2,8 @@
 // absence on a take that stays inside, and the score formula.
 #include "earmark/prosody/suspects.hpp"
 
+#include "prosody_test_util.hpp"
+
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -10,15 +12,8 @@
 namespace earmark {
 namespace {
 
-constexpr double kHop = 0.005;
-
-Interval iv(double a, double b, std::string label) {
-    Interval i;
-    i.startS = a;
-    i.endS = b;
-    i.label = std::move(label);
-    return i;
-}
+constexpr double kHop = test::kProsodyHop;
+using test::iv;
 
 // A take of `seconds` with speech (−15 dB) in the given spans, F0 from `f0(t)` (0 = unvoiced).
 template <typename F0>
