@@ -115,6 +115,56 @@ def holm(p):
     return {"p": list(map(float, p)), "adjusted": list(map(float, adjusted))}
 
 
+def chosen_test(d, balanced):
+    """Earmark's rule: paired t when balanced; Wilcoxon (exact when n <= 50 with
+    no zeros and no ties, else approx) otherwise."""
+    if balanced:
+        return float(stats.ttest_rel(d, np.zeros(len(d))).pvalue)
+    nz = [x for x in d if x != 0]
+    exact = len(nz) <= 50 and len(nz) == len(d) and len(set(abs(x) for x in nz)) == len(nz)
+    return wilcoxon(d, "exact" if exact else "approx")["p"]
+
+
+def mos_round():
+    """A complete MOS round: 4 raters x 5 lines x 3 systems, scores from a fixed formula."""
+    raters, lines, systems = ["r1", "r2", "r3", "r4"], ["l1", "l2", "l3", "l4", "l5"], ["north", "south", "west"]
+    score = {}
+    for ri, r in enumerate(raters):
+        for li, l in enumerate(lines):
+            for si, s in enumerate(systems):
+                score[(r, l, s)] = min(5, 1 + (ri * 3 + li * 2 + si * si + ri * li * si) % 5 + (si == 0 and li % 2 == 0))
+    answers = [{"rater": r, "line": l, "system": s, "score": score[(r, l, s)]}
+               for r in raters for l in lines for s in systems]
+    summaries = {s: mean_interval([score[(r, l, s)] for r in raters for l in lines]) for s in systems}
+    pairs = []
+    for i in range(3):
+        for j in range(i + 1, 3):
+            a, b = systems[i], systems[j]
+            d = [score[(r, l, a)] - score[(r, l, b)] for r in raters for l in lines]
+            pairs.append({"a": a, "b": b, "p_t": float(stats.ttest_rel(
+                [score[(r, l, a)] for r in raters for l in lines],
+                [score[(r, l, b)] for r in raters for l in lines]).pvalue),
+                "p_wilcoxon": chosen_test(d, False), "p": chosen_test(d, True)})
+    adjusted = holm([x["p"] for x in pairs])["adjusted"]
+    for x, h in zip(pairs, adjusted):
+        x["p_holm"] = h
+    return {"systems": systems, "lines": lines, "answers": answers,
+            "summaries": [dict(system=s, **summaries[s]) for s in systems], "pairs": pairs}
+
+
+def ab_round():
+    """A/B counts of three pairs; preferences only (no ties in the binomial)."""
+    pairs = [("a", "b", 31, 17, 4), ("a", "c", 12, 12, 0), ("b", "c", 5, 20, 3)]
+    out = []
+    for a, b, wa, wb, none in pairs:
+        r = binomial(wa, wa + wb)
+        out.append({"a": a, "b": b, "a_preferred": wa, "b_preferred": wb, "none": none, **r})
+    adjusted = holm([x["p"] for x in out])["adjusted"]
+    for x, h in zip(out, adjusted):
+        x["p_holm"] = h
+    return out
+
+
 def main():
     out = {
         "generator": "tests/data/make_listening_reference.py",
@@ -126,6 +176,8 @@ def main():
         "wilcoxon": [wilcoxon(d, "exact") for d in EXACT_SETS] + [wilcoxon(d, "approx") for d in APPROX_SETS],
         "binomial": [binomial(k, n) for k, n in BINOMIAL],
         "holm": [holm(p) for p in HOLM],
+        "mos_round": mos_round(),
+        "ab_round": ab_round(),
     }
     os.makedirs(os.path.dirname(OUT), exist_ok=True)
     with open(OUT, "w") as f:
