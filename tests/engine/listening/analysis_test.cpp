@@ -9,6 +9,7 @@
 #include <nlohmann/json.hpp>
 
 #include <cmath>
+#include <cstdio>
 #include <fstream>
 
 namespace earmark::listening {
@@ -70,8 +71,8 @@ TEST(Analysis, AbRoundMatchesScipyBinomtest) {
         auto add = [&](int n, double score, bool flip) {
             for (int i = 0; i < n; ++i) {
                 const std::string a = pr["a"], b = pr["b"];
-                std::string name = std::to_string(rater++);
-                name.insert(0, "r");
+                char name[16];
+                std::snprintf(name, sizeof name, "r%d", rater++);
                 answers.push_back({name, "l01", flip ? b : a, flip ? a : b,
                                    flip ? -score : score, TrialKind::Main, {}});
             }
