@@ -78,6 +78,48 @@ CREATE TABLE suspects (
 CREATE INDEX suspects_by_take ON suspects (take_id);
 ALTER TABLE takes ADD COLUMN status_utc TEXT NOT NULL DEFAULT '';
 )sql"},
+    // Version 3: listening tests, their recorded plans, raters and answers.
+    {3, R"sql(
+CREATE TABLE listening_tests (
+    id          INTEGER PRIMARY KEY AUTOINCREMENT,
+    name        TEXT NOT NULL UNIQUE,
+    kind        TEXT NOT NULL CHECK (kind IN ('mos', 'cmos', 'mushra', 'ab')),
+    design      TEXT NOT NULL,
+    created_utc TEXT NOT NULL
+);
+CREATE TABLE listening_trials (
+    test_id   INTEGER NOT NULL REFERENCES listening_tests (id) ON DELETE CASCADE,
+    slot      INTEGER NOT NULL,
+    position  INTEGER NOT NULL,
+    line_id   TEXT NOT NULL,
+    kind      TEXT NOT NULL CHECK (kind IN ('main', 'repeat', 'attention')),
+    repeat_of INTEGER NOT NULL DEFAULT -1,
+    stimuli   TEXT NOT NULL,
+    PRIMARY KEY (test_id, slot, position)
+) WITHOUT ROWID;
+CREATE TABLE listening_raters (
+    test_id    INTEGER NOT NULL REFERENCES listening_tests (id) ON DELETE CASCADE,
+    rater      TEXT NOT NULL,
+    slot       INTEGER,
+    joined_utc TEXT NOT NULL,
+    PRIMARY KEY (test_id, rater)
+) WITHOUT ROWID;
+CREATE UNIQUE INDEX listening_raters_by_slot ON listening_raters (test_id, slot) WHERE slot IS NOT NULL;
+CREATE TABLE listening_answers (
+    id             INTEGER PRIMARY KEY,
+    test_id        INTEGER NOT NULL REFERENCES listening_tests (id) ON DELETE CASCADE,
+    rater          TEXT NOT NULL,
+    line_id        TEXT NOT NULL,
+    system         TEXT NOT NULL,
+    versus         TEXT NOT NULL DEFAULT '',
+    kind           TEXT NOT NULL CHECK (kind IN ('main', 'repeat')),
+    score          REAL,
+    trial_position INTEGER,
+    origin         TEXT NOT NULL DEFAULT '',
+    answered_utc   TEXT NOT NULL,
+    UNIQUE (test_id, rater, line_id, system, versus, kind)
+);
+)sql"},
 };
 
 static_assert(std::size(kMigrations) == Session::kSchemaVersion, "one migration step per schema version");

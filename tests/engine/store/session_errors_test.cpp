@@ -76,8 +76,8 @@ TEST(SessionErrors, NewerSchemaIsRefusedAndLeftUntouched) {
     rawSql(file, "PRAGMA user_version = 7;");
     const std::string before = slurp(file);
     EXPECT_EQ(openError<InputError>(file),
-              file + ": was written by a newer Earmark (session schema 7; this version reads up to 2). "
-                     "It was not changed; open it with a newer Earmark");
+              file + ": was written by a newer Earmark (session schema 7; this version reads up to " +
+                  std::to_string(Session::kSchemaVersion) + "). It was not changed; open it with a newer Earmark");
     EXPECT_THAT(openError<InputError>(file, OpenMode::ReadOnly), HasSubstr("newer Earmark"));
     EXPECT_EQ(slurp(file), before);
 }

@@ -45,7 +45,7 @@ enum class OpenMode {
 
 class Session {
 public:
-    static constexpr int kSchemaVersion = 2;
+    static constexpr int kSchemaVersion = 3;
     static constexpr int kBusyTimeoutMs = 5000;
 
     // Creates a new, empty session file. Refuses (InputError) when `path`
@@ -114,6 +114,7 @@ public:
     struct Impl;
 
 private:
+    friend class ListeningStore;  // listening tests live in the same file (store/listening_store.hpp)
     explicit Session(std::unique_ptr<Impl> impl);
     std::unique_ptr<Impl> impl_;
 };
