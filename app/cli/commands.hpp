@@ -17,5 +17,6 @@ int runMerge(const std::vector<std::string>& args);
 int runAlign(const std::vector<std::string>& args);
 int runCompare(const std::vector<std::string>& args);
 int runModel(const std::vector<std::string>& args);
+int runListen(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

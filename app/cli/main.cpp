@@ -34,6 +34,7 @@ const std::map<std::string, Subcommand>& subcommands() {
         {"align", {earmark::cli::runAlign, "word and phone timings of a take from its text (espeak-ng + DTW)"}},
         {"compare", {earmark::cli::runCompare, "two takes of the same text as a pair: per-word table, F0, MCD"}},
         {"model", {earmark::cli::runModel, "a model's predicted mel or attention matrix against the audio"}},
+        {"listen", {earmark::cli::runListen, "listening tests (MOS, CMOS, MUSHRA, A/B): create, plan, import, analyse"}},
     };
     return table;
 }

@@ -122,7 +122,7 @@ std::string meansSvg(const TestDesign& d, const Report& r) {
         if (std::isfinite(s.bootLow)) out += line(x + 10, axis.y(s.bootLow), x + 10, axis.y(s.bootHigh), c, 1.5);
         if (std::isfinite(s.t.mean))
             out += "<circle cx=\"" + num(x) + "\" cy=\"" + num(axis.y(s.t.mean)) + "\" r=\"6\" fill=\"white\" stroke=\"" +
-                   c + "\" stroke-width=\"2\"/>\n" + text(x - 12, axis.y(s.t.mean) + 4, num(s.t.mean), "end");
+                   c + "\" stroke-width=\"2\"/>\n" + text(x + 16, axis.y(s.t.mean) + 4, num(s.t.mean), "start");
         out += text(x, top + plotH + 18, s.system, "end", -30);
     }
     return out + "</svg>\n";
