@@ -130,7 +130,7 @@ int runList(const Arguments& args) {
     Session session = Session::open(sessionFile(args), OpenMode::ReadOnly);
     for (const ListeningTestInfo& t : ListeningStore(session).tests())
         std::printf("%s\t%s\t%d/%d raters\t%d answers\t%s\n", t.name.c_str(), std::string(kindName(t.kind)).c_str(),
-                    t.ratersJoined, t.slots, t.answers, t.createdUtc.c_str());
+                    t.ratersJoined, t.raterSlots, t.answers, t.createdUtc.c_str());
     return kExitOk;
 }
 

@@ -1,6 +1,7 @@
 // earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--screenshot PATH [--size WxH]]
 //         [--view START:END] [--select START:END] [--predicted-mel FILE.npy]
 //         [--attention FILE.npy --tokens FILE]
+// earmark SESSION.earmark --rate TEST [--rater NAME] [--screenshot PATH [--size WxH]]
 // earmark --compare A B [--text "…" | --words-a FILE --words-b FILE] [--screenshot PATH [--size WxH]]
 //
 // --compare opens the compare window on two takes of the same text (words
@@ -19,6 +20,7 @@
 #include "main_window.hpp"
 
 #include "earmark/widgets/compare_window.hpp"
+#include "earmark/widgets/rating_window.hpp"
 
 #include "earmark/widgets/take_list.hpp"
 
@@ -84,7 +86,13 @@ int main(int argc, char** argv) {
                                     QStringLiteral("FILE"));
     const QCommandLineOption wordsB(QStringLiteral("words-b"), QStringLiteral("With --compare: word timings of take B."),
                                     QStringLiteral("FILE"));
-    parser.addOptions({screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB});
+    const QCommandLineOption rate(QStringLiteral("rate"),
+                                  QStringLiteral("With a session: rate its listening test TEST in the full-window rating mode."),
+                                  QStringLiteral("TEST"));
+    const QCommandLineOption rater(QStringLiteral("rater"), QStringLiteral("With --rate: start (or resume) as this rater."),
+                                   QStringLiteral("NAME"));
+    parser.addOptions({screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
+                       rate, rater});
     parser.process(app);
 
     const QRegularExpression sizeRe(QStringLiteral("^(\\d+)x(\\d+)$"));
@@ -139,6 +147,27 @@ int main(int argc, char** argv) {
     if (arguments.size() == 1 && arguments.front().endsWith(QStringLiteral(".earmark"), Qt::CaseInsensitive))
         sessionPath = arguments.front();
     if (parser.isSet(takeOption) && sessionPath.isEmpty()) return fail(QStringLiteral("--take needs a session (.earmark)"), 2);
+    if (parser.isSet(rate)) {
+        if (sessionPath.isEmpty()) return fail(QStringLiteral("--rate needs a session (.earmark)"), 2);
+        std::unique_ptr<earmark::widgets::RatingWindow> rating;
+        try {
+            rating = std::make_unique<earmark::widgets::RatingWindow>(sessionPath, parser.value(rate));
+        } catch (const std::exception& e) {
+            return fail(QString::fromLocal8Bit(e.what()), 3);
+        }
+        rating->resize(windowSize);
+        rating->show();
+        if (parser.isSet(rater) && !rating->begin(parser.value(rater)) && parser.isSet(screenshot))
+            return fail(rating->statusText(), 3);
+        if (!parser.isSet(screenshot)) return app.exec();
+        int shotCode = 0;
+        QTimer::singleShot(100, &app, [&] {
+            shotCode = rating->grab().save(parser.value(screenshot), "PNG") ? 0 : 1;
+            app.quit();
+        });
+        app.exec();
+        return shotCode;
+    }
     std::vector<earmark::widgets::TakeEntry> takes;
     try {
         if (sessionPath.isEmpty()) takes = earmark::widgets::takesFromArguments(arguments);

@@ -53,7 +53,7 @@ TEST(ListeningStore, RecordsThePlanAndBindsRatersToSlots) {
     Session s = Session::create(dir.file("s.earmark"));
     ListeningStore store(s);
     const auto info = store.createTest(mosDesign());
-    EXPECT_EQ(info.slots, 2);
+    EXPECT_EQ(info.raterSlots, 2);
     EXPECT_EQ(planSignature(store.plan("round-1")), planSignature(listening::makePlan(mosDesign())));
     EXPECT_EQ(store.design("round-1").systems[1].name, "south");
     EXPECT_EQ(store.joinRater("round-1", "ann"), 0);

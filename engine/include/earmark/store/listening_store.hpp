@@ -32,7 +32,7 @@ struct ListeningTestInfo {
     std::string name;
     listening::TestKind kind = listening::TestKind::Mos;
     std::string createdUtc;
-    int slots = 0, ratersJoined = 0, answers = 0;
+    int raterSlots = 0, ratersJoined = 0, answers = 0;
 };
 
 class ListeningStore {
