@@ -185,15 +185,22 @@ int runAnalyse(const Arguments& args) {
     fs::create_directories(*out, ec);
     if (ec) throw Error(*out, "cannot be created: " + ec.message());
     const fs::path dir(*out);
-    writeTextOutput((dir / "report.json").string(), reportToJson(d, r));
-    writeTextOutput((dir / "exclusions.csv").string(), exclusionsCsv(r));
-    writeTextOutput((dir / "means.svg").string(), meansSvg(d, r));
+    // The texts end with their own line break; writeTextOutput adds one, so drop ours
+    // (a CSV's last record keeps its CRLF).
+    auto write = [&dir](const char* name, std::string text) {
+        if (!text.empty() && text.back() == '\n') text.pop_back();
+        writeTextOutput((dir / name).string(), text);
+    };
+    write("report.json", reportToJson(d, r));
+    write("exclusions.csv", exclusionsCsv(r));
+    write("answers.csv", answersToCsv(answers));
+    write("means.svg", meansSvg(d, r));
     if (d.kind == TestKind::Ab) {
-        writeTextOutput((dir / "preferences.csv").string(), preferencesCsv(r));
+        write("preferences.csv", preferencesCsv(r));
     } else {
-        writeTextOutput((dir / "systems.csv").string(), systemsCsv(r));
-        writeTextOutput((dir / "pairs.csv").string(), pairsCsv(r));
-        writeTextOutput((dir / "lines.svg").string(), linesSvg(d, r));
+        write("systems.csv", systemsCsv(r));
+        write("pairs.csv", pairsCsv(r));
+        write("lines.svg", linesSvg(d, r));
     }
     std::printf("%s: %zu rater(s) kept, %zu exclusion(s), %d answer(s) used\n", name.c_str(), r.screening.kept.size(),
                 r.screening.excluded.size(), r.answersUsed);
@@ -243,7 +250,7 @@ const std::map<std::string, Action>& actions() {
          {"FILE --test NAME --out FOLDER [OPTIONS]",
           "screen raters, then means, intervals and paired tests as JSON, CSV and SVG",
           {{"test", "NAME", "", "the test"},
-           {"out", "FOLDER", "", "where report.json, the CSV tables and the SVG pictures go"},
+           {"out", "FOLDER", "", "where report.json, the CSV tables (with every stored answer) and the SVG pictures go"},
            {"bootstrap", "N", "2000", "bootstrap rounds over raters and lines (0 = none)"},
            {"seed", "S", "1", "seed of the bootstrap"},
            {"paired-test", "T", "auto", "auto (paired t when balanced, else Wilcoxon), wilcoxon or paired-t"},

@@ -8,6 +8,7 @@
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <filesystem>
 #include <fstream>
 
@@ -66,7 +67,7 @@ TEST(ListenCli, ImportAndAnalyseExcludeThePlantedRater) {
     const auto analysed = runCli({"listen", "analyse", r.session, "--test", "m1", "--out", out, "--bootstrap", "300"});
     ASSERT_EQ(analysed.exitCode, 0) << analysed.err;
     EXPECT_THAT(analysed.out, HasSubstr("excluded cy (mushra-reference)"));
-    for (const char* f : {"report.json", "systems.csv", "pairs.csv", "exclusions.csv", "means.svg", "lines.svg"})
+    for (const char* f : {"report.json", "systems.csv", "pairs.csv", "exclusions.csv", "answers.csv", "means.svg", "lines.svg"})
         EXPECT_TRUE(fs::exists(fs::path(out) / f)) << f;
     const auto report = nlohmann::json::parse(std::ifstream(fs::path(out) / "report.json"));
     EXPECT_EQ(report["raters_kept"], nlohmann::json::array({"ann", "bob"}));
@@ -74,6 +75,10 @@ TEST(ListenCli, ImportAndAnalyseExcludeThePlantedRater) {
     EXPECT_EQ(report["systems"].size(), 4u);
     EXPECT_EQ(report["pairs"].size(), 6u);
     EXPECT_THAT(test::slurp(fs::path(out) / "means.svg"), HasSubstr("<svg"));
+    // The exported answers read back as an import file: all 48, in the same form.
+    const std::string again = test::slurp(fs::path(out) / "answers.csv");
+    EXPECT_EQ(std::count(again.begin(), again.end(), '\n'), 49);
+    EXPECT_THAT(again, HasSubstr("cy,line-1,studio,,70,main"));
 }
 
 TEST(ListenCli, BadRatingsFilesGetOneClearLine) {

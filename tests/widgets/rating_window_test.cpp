@@ -109,6 +109,24 @@ TEST(RatingWindow, MushraTrialStoresOneAnswerPerTake) {
     EXPECT_EQ(w.trialsDone(), 1);
 }
 
+TEST(RatingWindow, AbKeyOnePrefersTheFirstTake) {
+    RatingSession s(TestKind::Ab, {{"a", SystemRole::Candidate}, {"b", SystemRole::Candidate}});
+    RatingWindow w(QString::fromStdString(s.file), QStringLiteral("round"));
+    w.show();
+    ASSERT_TRUE(w.begin(QStringLiteral("cy")));
+    Session session = Session::open(s.file, OpenMode::ReadOnly);
+    const auto plan = ListeningStore(session).plan("round");
+    const auto& first = plan.raters[0].trials[0];
+    const int heardFirst = first.stimuli[0].system;  // 0 = "a", 1 = "b"
+    QTest::keyClick(&w, Qt::Key_1);
+    QTest::keyClick(&w, Qt::Key_Return);
+    const auto stored = s.answers();
+    ASSERT_EQ(stored.size(), 1u);
+    // Stored canonically as "a" against "b": +1 when "a" was the preferred (first) take.
+    EXPECT_EQ(stored[0].system, "a");
+    EXPECT_EQ(*stored[0].score, heardFirst == 0 ? 1.0 : -1.0);
+}
+
 TEST(RatingWindow, UnknownTestIsRefusedWithItsName) {
     RatingSession s(TestKind::Ab, {{"a", SystemRole::Candidate}, {"b", SystemRole::Candidate}});
     try {

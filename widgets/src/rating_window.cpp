@@ -17,6 +17,7 @@
 #include <QStackedWidget>
 #include <QVBoxLayout>
 
+#include <algorithm>
 #include <cmath>
 
 namespace earmark::widgets {
@@ -43,6 +44,14 @@ QPushButton* bigButton(const QString& text, QWidget* parent) {
 // CMOS values carry their sign, so +1 and −1 read as "better" and "worse".
 QString valueText(TestKind kind, double v) {
     return kind == TestKind::Cmos && v > 0 ? QStringLiteral("+%1").arg(v) : QString::number(v);
+}
+
+// The scale's values in the order shown (and keyed 1, 2, …): A/B reads
+// "first, none, second" left to right.
+std::vector<std::pair<double, std::string>> shownScale(TestKind kind) {
+    auto labels = scaleOf(kind).labels;
+    if (kind == TestKind::Ab) std::reverse(labels.begin(), labels.end());
+    return labels;
 }
 
 }  // namespace
@@ -235,6 +244,8 @@ void RatingWindow::showTrial() {
             value->setFont(sized(value->font(), 1.3, true));
             sliderValues_.push_back(value);
             connect(slider, &QSlider::valueChanged, this, [this, k](int v) { rate(static_cast<int>(k), v); });
+            // Releasing the handle counts as a rating even where it started (0 is a valid score).
+            connect(slider, &QSlider::sliderReleased, this, [this, k, slider] { rate(static_cast<int>(k), slider->value()); });
             grid->addWidget(b, 1, col, Qt::AlignHCenter);
             grid->addWidget(slider, 2, col, Qt::AlignHCenter);
             grid->addWidget(value, 3, col, Qt::AlignHCenter);
@@ -247,11 +258,11 @@ void RatingWindow::showTrial() {
 }
 
 void RatingWindow::buildScale(QVBoxLayout* into) {
-    const Scale scale = scaleOf(design_.kind);
+    const auto scale = shownScale(design_.kind);
     auto* row = new QHBoxLayout;
     auto* group = new QButtonGroup(trialBody_);
-    for (std::size_t i = 0; i < scale.labels.size(); ++i) {
-        const auto& [value, label] = scale.labels[i];
+    for (std::size_t i = 0; i < scale.size(); ++i) {
+        const auto& [value, label] = scale[i];
         auto* b = new QPushButton(tr("%1\n%2\nkey %3").arg(valueText(design_.kind, value), qs(label)).arg(i + 1), trialBody_);
         b->setCheckable(true);
         b->setMinimumSize(120, 96);
@@ -273,9 +284,9 @@ void RatingWindow::rate(int stimulus, double value) {
     if (k >= ratings_.size()) return;
     ratings_[k] = value;
     if (oneScale()) {
-        const Scale scale = scaleOf(design_.kind);
-        for (std::size_t i = 0; i < scale.labels.size() && i < scaleButtons_.size(); ++i)
-            scaleButtons_[i]->setChecked(scale.labels[i].first == value);
+        const auto scale = shownScale(design_.kind);
+        for (std::size_t i = 0; i < scale.size() && i < scaleButtons_.size(); ++i)
+            scaleButtons_[i]->setChecked(scale[i].first == value);
     } else if (k < sliderValues_.size()) {
         sliderValues_[k]->setText(QString::number(value));
     }
@@ -348,9 +359,9 @@ void RatingWindow::keyPressEvent(QKeyEvent* event) {
     } else if (key >= Qt::Key_A && key <= Qt::Key_Z && key - Qt::Key_A < static_cast<int>(trial.stimuli.size())) {
         play(key - Qt::Key_A);
     } else if (oneScale() && key >= Qt::Key_1 && key <= Qt::Key_9) {
-        const Scale scale = scaleOf(design_.kind);
+        const auto scale = shownScale(design_.kind);
         const auto i = static_cast<std::size_t>(key - Qt::Key_1);
-        if (i < scale.labels.size()) rate(0, scale.labels[i].first);
+        if (i < scale.size()) rate(0, scale[i].first);
     } else {
         QWidget::keyPressEvent(event);
     }
