@@ -201,8 +201,10 @@ void RatingWindow::showTrial() {
         setStatus(tr("A take of this trial cannot be read; tell the organiser (trial %1).").arg(position_ + 1), true);
     }
 
+    // The previous trial's widgets: take a copy of the list, deleting changes it.
     delete trialBody_->layout();
-    for (QObject* child : trialBody_->children()) delete child;
+    const QObjectList previous = trialBody_->children();
+    qDeleteAll(previous);
     scaleButtons_.clear();
     sliderValues_.clear();
     auto* body = new QVBoxLayout(trialBody_);
