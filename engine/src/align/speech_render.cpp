@@ -54,6 +54,7 @@ void SpeechParams::validate() const {
     if (rateWpm < espeakRATE_MINIMUM || rateWpm > espeakRATE_MAXIMUM)
         throw ParamError("SpeechParams.rateWpm", "must be 80…450 words per minute");
     if (pitch < 0 || pitch > 99) throw ParamError("SpeechParams.pitch", "must be 0…99");
+    if (pitchRange < 0 || pitchRange > 99) throw ParamError("SpeechParams.pitchRange", "must be 0…99");
 }
 
 RenderedSpeech renderSpeech(const std::string& text, const SpeechParams& params) {
@@ -75,7 +76,7 @@ RenderedSpeech renderSpeech(const std::string& text, const SpeechParams& params)
     // Parameters persist between calls: set every one that shapes the output.
     espeak_SetParameter(espeakRATE, params.rateWpm, 0);
     espeak_SetParameter(espeakPITCH, params.pitch, 0);
-    espeak_SetParameter(espeakRANGE, 50, 0);
+    espeak_SetParameter(espeakRANGE, params.pitchRange, 0);
     espeak_SetParameter(espeakVOLUME, 100, 0);
     espeak_SetParameter(espeakWORDGAP, 0, 0);
     espeak_SetParameter(espeakPUNCTUATION, espeakPUNCT_NONE, 0);

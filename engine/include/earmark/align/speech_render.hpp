@@ -24,7 +24,8 @@ struct SpeechParams {
     std::string voice = "en-us";
     int rateWpm = 175;  // speaking rate, words per minute, 80…450 (175 is espeak-ng's normal)
     int pitch = 50;     // base pitch, 0…99 (50 is the voice's normal)
-    // Throws ParamError("SpeechParams.rateWpm" / ".pitch" / ".voice") when out of range or empty.
+    int pitchRange = 50;  // intonation range, 0…99 (0 = monotone, 50 = the voice's normal)
+    // Throws ParamError("SpeechParams.rateWpm" / ".pitch" / ".pitchRange" / ".voice") when out of range or empty.
     void validate() const;
 };
 
