@@ -18,5 +18,6 @@ int runAlign(const std::vector<std::string>& args);
 int runCompare(const std::vector<std::string>& args);
 int runModel(const std::vector<std::string>& args);
 int runListen(const std::vector<std::string>& args);
+int runLongform(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

@@ -35,6 +35,7 @@ const std::map<std::string, Subcommand>& subcommands() {
         {"compare", {earmark::cli::runCompare, "two takes of the same text as a pair: per-word table, F0, MCD"}},
         {"model", {earmark::cli::runModel, "a model's predicted mel or attention matrix against the audio"}},
         {"listen", {earmark::cli::runListen, "listening tests (MOS, CMOS, MUSHRA, A/B): create, plan, import, analyse"}},
+        {"longform", {earmark::cli::runLongform, "one long take over time: seams at chunk joins, drifts, stretches"}},
     };
     return table;
 }

@@ -303,7 +303,8 @@ std::vector<Finding> findMonotoneStretches(const LongTakeTracks& tr, const LongT
 }
 
 LongformReport analyseLongform(const Signal& take, const std::vector<double>& knownJoins, const LongformRules& rules,
-                               Progress progress) {
+                               Progress progress, const std::string& joinsOrigin) {
+    checkJoins(knownJoins, take.durationSeconds(), joinsOrigin);
     LongTakeParams params;
     params.windowSeconds = rules.windowSeconds;
     params.windowHopSeconds = rules.windowHopSeconds;
@@ -311,7 +312,7 @@ LongformReport analyseLongform(const Signal& take, const std::vector<double>& kn
     LongformReport report;
     report.analysis = analyseLongTake(take, params, progress.sub(0, 0.9));
     const auto& tr = report.analysis.tracks;
-    report.joins = measureJoins(take, tr, knownJoins, rules.seam);
+    report.joins = measureJoins(take, tr, knownJoins, rules.seam, joinsOrigin);
     const std::vector<Finding> shifts = findTimbreShifts(tr, rules);
     for (auto part : {findSeams(report.joins, rules), findDrifts(report.analysis.series, rules, shifts), shifts,
                       findMonotoneStretches(tr, report.analysis.series, rules)})

@@ -93,14 +93,19 @@ void measureClick(const Signal& take, double a, double b, JoinMeasures& j) {
 
 }  // namespace
 
+void checkJoins(const std::vector<double>& knownJoins, double durationS, const std::string& origin) {
+    for (double t : knownJoins)
+        if (!(t > 0 && t < durationS))
+            throw InputError(origin, "join at " + formatSeconds(t) + " lies outside the take (0–" +
+                                         formatSeconds(durationS) + ")");
+}
+
 std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks& tr,
                                        const std::vector<double>& knownJoins, const LongformRules::Seam& rules,
                                        const std::string& origin) {
+    checkJoins(knownJoins, tr.durationS, origin);
     std::vector<JoinMeasures> joins;
     for (double t : knownJoins) {
-        if (!(t > 0 && t < tr.durationS))
-            throw InputError(origin, "join at " + formatSeconds(t) + " lies outside the take (0–" +
-                                         formatSeconds(tr.durationS) + ")");
         JoinMeasures j;
         j.timeS = t;
         j.known = true;

@@ -60,6 +60,27 @@ std::vector<Section> layout(ScanRules& r) {
         {"loudness", with(switchFields(r.loudness), {{"max_deviation_lu", &r.loudness.maxDeviationLu},
                                                      {"min_takes", &r.loudness.minTakes}})},
         {"dc_offset", with(switchFields(r.dcOffset), {{"max_abs", &r.dcOffset.maxAbs}})},
+        {"longform", {{"window_s", &r.longform.windowSeconds},
+                      {"window_hop_s", &r.longform.windowHopSeconds},
+                      {"min_take_s", &r.longform.minTakeSeconds},
+                      {"scan_min_take_s", &r.longform.scanMinTakeSeconds},
+                      {"drift_min_span_s", &r.longform.driftMinSpanSeconds}}},
+        {"seam", {{"enabled", &r.longform.seam.enabled},
+                  {"context_s", &r.longform.seam.contextSeconds},
+                  {"level_step_db", &r.longform.seam.levelStepDb},
+                  {"room_tone_step_db", &r.longform.seam.roomToneStepDb},
+                  {"click_db", &r.longform.seam.clickDb},
+                  {"envelope_jump", &r.longform.seam.envelopeJump}}},
+        {"level_drift", {{"enabled", &r.longform.levelDrift.enabled}, {"min_change_db", &r.longform.levelDrift.minChange}}},
+        {"pitch_drift", {{"enabled", &r.longform.pitchDrift.enabled}, {"min_change_st", &r.longform.pitchDrift.minChange}}},
+        {"rate_drift", {{"enabled", &r.longform.rateDrift.enabled},
+                        {"min_change_percent", &r.longform.rateDrift.minChange}}},
+        {"timbre_shift", {{"enabled", &r.longform.timbreShift.enabled},
+                          {"min_ratio", &r.longform.timbreShift.minRatio},
+                          {"min_s", &r.longform.timbreShift.minSeconds}}},
+        {"monotone_stretch", {{"enabled", &r.longform.monotone.enabled},
+                              {"max_range_st", &r.longform.monotone.maxRangeSt},
+                              {"min_s", &r.longform.monotone.minSeconds}}},
     };
 }
 
@@ -85,6 +106,31 @@ void readField(const Field& f, const Json& v, const std::string& path) {
 
 void requireFinite(double v, const std::string& path) {
     if (!std::isfinite(v)) throw ParamError(path, "must be finite");
+}
+
+void validateLongform(const LongformRules& l) {
+    const auto positive = [](double v, const char* section, const char* key) {
+        if (!(v > 0)) throw ParamError(keyPath(section, key), "must be positive");
+    };
+    if (!(l.windowSeconds >= 5 && l.windowSeconds <= 600)) throw ParamError("rules.longform.window_s", "must be 5…600 s");
+    if (!(l.windowHopSeconds > 0 && l.windowHopSeconds <= l.windowSeconds))
+        throw ParamError("rules.longform.window_hop_s", "must be positive and at most window_s");
+    if (!(l.minTakeSeconds >= l.windowSeconds)) throw ParamError("rules.longform.min_take_s", "must be at least window_s");
+    if (!(l.scanMinTakeSeconds >= l.minTakeSeconds))
+        throw ParamError("rules.longform.scan_min_take_s", "must be at least min_take_s");
+    positive(l.driftMinSpanSeconds, "longform", "drift_min_span_s");
+    positive(l.seam.contextSeconds, "seam", "context_s");
+    positive(l.seam.levelStepDb, "seam", "level_step_db");
+    positive(l.seam.roomToneStepDb, "seam", "room_tone_step_db");
+    positive(l.seam.clickDb, "seam", "click_db");
+    if (!(l.seam.envelopeJump > 1)) throw ParamError("rules.seam.envelope_jump", "must be above 1 (a ratio to the median join)");
+    positive(l.levelDrift.minChange, "level_drift", "min_change_db");
+    positive(l.pitchDrift.minChange, "pitch_drift", "min_change_st");
+    positive(l.rateDrift.minChange, "rate_drift", "min_change_percent");
+    if (!(l.timbreShift.minRatio > 1)) throw ParamError("rules.timbre_shift.min_ratio", "must be above 1");
+    positive(l.timbreShift.minSeconds, "timbre_shift", "min_s");
+    positive(l.monotone.maxRangeSt, "monotone_stretch", "max_range_st");
+    positive(l.monotone.minSeconds, "monotone_stretch", "min_s");
 }
 
 }  // namespace
@@ -147,6 +193,7 @@ void ScanRules::validate() const {
     positive(loudness.maxDeviationLu, "loudness", "max_deviation_lu");
     if (loudness.minTakes < 2) throw ParamError("rules.loudness.min_takes", "must be >= 2");
     positive(dcOffset.maxAbs, "dc_offset", "max_abs");
+    validateLongform(longform);
 }
 
 ScanRules parseRules(const std::string& json, const std::string& origin) {

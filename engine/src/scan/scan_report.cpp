@@ -4,6 +4,8 @@
 #include "earmark/export/defect_list.hpp"  // csvRecord (RFC 4180)
 #include "earmark/store/take_list.hpp"     // parseCsv (RFC 4180)
 
+#include "../longform/finding_json.hpp"
+
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
@@ -231,6 +233,8 @@ ScanReport readJsonReport(const std::string& text, const std::string& path) {
                 s.reason = js.at("reason").get<std::string>();
                 row.suspects.push_back(std::move(s));
             }
+            if (t.contains("findings"))
+                for (const auto& jf : t.at("findings")) row.findings.push_back(detail::findingFromJson(jf, path, row.id));
             report.rows.push_back(std::move(row));
         }
     } catch (const Json::exception& e) {
@@ -350,6 +354,9 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
                                 {"reason", s.reason}});
         }
         t["suspects"] = suspects;
+        Json findings = Json::array();
+        for (const Finding& f : row.findings) findings.push_back(detail::findingToJson(f));
+        t["findings"] = findings;
         takes.push_back(std::move(t));
     }
     doc["takes"] = std::move(takes);

@@ -41,6 +41,13 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
             ProsodyContext::fromAnalysis(analysis, std::move(transcript), settings.rules.prosodyParams());
         row.measures = measureTake(context, measureLevels(analysis));
         row.suspects = findSuspects(context, *row.measures, settings.rules);
+        if (analysis.signal.durationSeconds() >= settings.rules.longform.scanMinTakeSeconds) {
+            try {
+                row.findings = analyseLongform(analysis.signal, {}, settings.rules.longform).findings;
+            } catch (const InputError& e) {
+                row.status += "; long-form not measured: " + e.problem();
+            }
+        }
     } catch (const Cancelled&) {
         throw;
     } catch (const std::bad_alloc&) {

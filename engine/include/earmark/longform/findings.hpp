@@ -68,8 +68,9 @@ struct LongformReport {
 };
 
 // The long-take measures with the rules' window settings, the joins, and all
-// findings. Errors as analyseLongTake and measureJoins.
+// findings. Errors as analyseLongTake and measureJoins (`joinsOrigin` names
+// the chunk list in its errors).
 LongformReport analyseLongform(const Signal& take, const std::vector<double>& knownJoins, const LongformRules& rules,
-                               Progress progress = {});
+                               Progress progress = {}, const std::string& joinsOrigin = "chunks");
 
 }  // namespace earmark

@@ -40,6 +40,9 @@ struct JoinMeasures {
     double envelopeJump = 0.0;
 };
 
+// Throws InputError(origin, …) naming the first join outside (0, durationS).
+void checkJoins(const std::vector<double>& knownJoins, double durationS, const std::string& origin = "chunks");
+
 // `knownJoins`: seconds from the start of the take; when empty the pauses
 // are the candidates. Throws InputError(origin, …) naming the first join
 // outside (0, duration).

@@ -8,6 +8,7 @@
 // or keys, wrong types and out-of-range values are errors naming the key.
 #pragma once
 
+#include "earmark/longform/longform_rules.hpp"
 #include "earmark/prosody/prosody_context.hpp"
 
 #include <cstdint>
@@ -73,6 +74,8 @@ struct ScanRules {
     LoudnessRule loudness;
     DcOffsetRule dcOffset;
     double scoreCapPerSuspect = 3.0;       // section "score": one suspect adds at most weight × cap
+    LongformRules longform;                // sections "longform", "seam", "level_drift", "pitch_drift",
+                                           // "rate_drift", "timbre_shift", "monotone_stretch"
 
     ProsodyParams prosodyParams() const;
     void validate() const;  // throws ParamError("rules.<section>.<key>")

@@ -6,6 +6,7 @@
 #pragma once
 
 #include "earmark/analysis/take_analysis.hpp"
+#include "earmark/longform/findings.hpp"
 #include "earmark/prosody/suspects.hpp"
 #include "earmark/scan/scan_input.hpp"
 
@@ -24,6 +25,8 @@ struct ScanRow {
     std::string status = "ok";      // "ok", "ok; timings ignored: …", or "error: …"
     std::optional<TakeMeasures> measures;  // empty when failed
     std::vector<TakeSuspect> suspects;     // per-take suspects, then set-level ones (loud/quiet)
+    std::vector<Finding> findings;         // long-form findings, for takes of at least
+                                           // rules.longform.scanMinTakeSeconds (not scored)
     double takeScore = 0.0;         // score of the per-take suspects
     double score = 0.0;             // takeScore + set-level suspects (applySetRules)
 };
@@ -39,7 +42,9 @@ struct ScanSettings {
 
 // Analyses and checks one take. Read errors become a failed row (never
 // thrown); a bad timings file is noted in the status and the take is
-// measured without it. Throws Cancelled when `progress` asks to stop.
+// measured without it. Takes of at least rules.longform.scanMinTakeSeconds
+// also get the long-form findings (longform/findings.hpp, no chunk list);
+// when those cannot be measured the status says why. Throws Cancelled when `progress` asks to stop.
 ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress progress = {});
 
 struct ScanProgress {
