@@ -10,7 +10,13 @@
 #include "earmark/longform/longform_json.hpp"
 #include "earmark/prosody/rules.hpp"
 
+#include "earmark/core/error.hpp"
+#include "earmark/tiers/timings_json.hpp"
+
 #include <cstdio>
+#include <fstream>
+#include <optional>
+#include <sstream>
 
 namespace earmark::cli {
 namespace {
@@ -22,6 +28,11 @@ Arguments makeArguments() {
                                                "to OUT, or to stdout with -"},
                          {"chunks", "FILE", "", "known join times, one per line in seconds (else pauses are "
                                                 "the candidate joins)"},
+                         {"text-file", "FILE", "", "the take's text (UTF-8; paragraphs separated by blank "
+                                                   "lines): aligned chunk by chunk to give paragraph, sentence "
+                                                   "and word timings"},
+                         {"tiers", "OUT", "", "with --text-file: write the paragraph, sentence, word and phone "
+                                              "tiers as Earmark timings JSON"},
                          {"rules", "FILE", "built in", "thresholds as JSON (sections longform, seam, "
                                                        "level_drift, … of docs/rules-default.json)"},
                          {"progress", "", "", "show progress on stderr even when it is not a terminal"},
@@ -44,6 +55,14 @@ void printSummary(const std::string& path, const LongformReport& report) {
         std::printf("  %9.2f-%-9.2f %s\n", f.startS, f.endS, f.reason.c_str());
 }
 
+std::string readTextFile(const std::string& path) {
+    std::ifstream in(path, std::ios::binary);
+    if (!in) throw InputError(path, "cannot be read");
+    std::ostringstream text;
+    text << in.rdbuf();
+    return text.str();
+}
+
 }  // namespace
 
 int runLongform(const std::vector<std::string>& argv) {
@@ -57,20 +76,41 @@ int runLongform(const std::vector<std::string>& argv) {
     const std::string chunks = args.valueOr("chunks", "");
     if (!chunks.empty()) joins = readChunkList(chunks);
 
+    const std::string textFile = args.valueOr("text-file", "");
+    if (args.has("tiers") && textFile.empty()) throw UsageError("--tiers needs --text-file");
+    std::string text;
+    if (!textFile.empty()) text = readTextFile(textFile);
+
     LongformReport report;
+    std::optional<LongAlignResult> aligned;
     LoadedAudio audio;
     {
         TerminalProgress bar("long-form " + path, args.has("progress"));
         const Progress progress = bar.progress();
-        audio = loadAudio(path, {}, {}, progress.sub(0.0, 0.1));
-        report = analyseLongform(audio.signal, joins, rules.longform, progress.sub(0.1, 1.0),
+        const double measuresEnd = textFile.empty() ? 1.0 : 0.5;
+        audio = loadAudio(path, {}, {}, progress.sub(0.0, 0.05));
+        report = analyseLongform(audio.signal, joins, rules.longform, progress.sub(0.05, measuresEnd),
                                  chunks.empty() ? "chunks" : chunks);
+        if (!textFile.empty()) {
+            try {
+                aligned = alignLongText(audio.signal, text, referenceWarpingAligner(), {}, progress.sub(0.5, 1.0));
+            } catch (const InputError& e) {
+                throw InputError(textFile, e.problem());
+            }
+        }
     }
+    if (auto tiers = args.value("tiers")) writeTextOutput(*tiers, timingsToJson(aligned->tiers));
     const auto json = args.value("json");
     if (json)
-        writeTextOutput(*json, longformToJson(report, rules.longform,
-                                              {path, audio.info.sampleRate, audio.info.channels}));
-    if (!json || *json != "-") printSummary(path, report);
+        writeTextOutput(*json, longformToJson(report, rules.longform, {path, audio.info.sampleRate, audio.info.channels},
+                                              aligned ? &*aligned : nullptr));
+    if (!json || *json != "-") {
+        printSummary(path, report);
+        if (aligned)
+            std::printf("text:      %zu paragraphs, %zu sentences aligned in %d chunks, mean word confidence %.2f\n",
+                        aligned->tiers.find(kParagraphsTier)->intervals.size(),
+                        aligned->tiers.find(kSentencesTier)->intervals.size(), aligned->chunks, aligned->meanConfidence);
+    }
     return kExitOk;
 }
 

@@ -10,6 +10,7 @@
 // the process's peak resident memory (which includes the audio itself and
 // the test's renderer) over the audio's float32 bytes.
 #include "earmark/longform/findings.hpp"
+#include "earmark/longform/long_alignment.hpp"
 #include "support/long_read.hpp"
 
 #include <benchmark/benchmark.h>
@@ -22,9 +23,15 @@ using namespace earmark;
 
 namespace {
 
+const test::LongRead& longRead() {
+    static const test::LongRead r = test::makeLongRead();
+    return r;
+}
+
+// The read repeated to an hour, and its text as often (whole copies only).
 const Signal& hourTake() {
     static const Signal take = [] {
-        const test::LongRead read = test::makeLongRead();
+        const test::LongRead& read = longRead();
         Signal s;
         s.sampleRate = read.audio.sampleRate;
         const auto n = static_cast<std::size_t>(3600.0 * s.sampleRate);
@@ -61,6 +68,30 @@ void BM_LongformHour(benchmark::State& state) {
     state.counters["findings"] = static_cast<double>(findings);
 }
 
+// Long text alignment of the hour (issue 12: <= 2 minutes on 2 cores; this
+// runs on one), chunk by chunk with the reference-warping aligner.
+void BM_LongAlignHour(benchmark::State& state) {
+    const Signal& take = hourTake();
+    const auto copies = static_cast<int>(take.size() / longRead().audio.size());
+    Signal whole;
+    whole.sampleRate = take.sampleRate;
+    whole.samples.assign(take.samples.begin(), take.samples.begin() + static_cast<std::ptrdiff_t>(copies * longRead().audio.size()));
+    std::string text;
+    for (int i = 0; i < copies; ++i) text += longRead().text + "\n\n";
+    double seconds = 0;
+    int chunks = 0;
+    for (auto _ : state) {
+        const auto start = std::chrono::steady_clock::now();
+        const LongAlignResult r = alignLongText(whole, text, referenceWarpingAligner());
+        seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+        state.SetIterationTime(seconds);
+        chunks = r.chunks;
+    }
+    state.counters["audio_s"] = whole.durationSeconds();
+    state.counters["x_realtime"] = whole.durationSeconds() / seconds;
+    state.counters["chunks"] = chunks;
+}
+
 void BM_Libebur128Hour(benchmark::State& state) {
     const Signal& take = hourTake();
     double seconds = 0;
@@ -82,4 +113,5 @@ void BM_Libebur128Hour(benchmark::State& state) {
 
 BENCHMARK(BM_Libebur128Hour)->Iterations(1)->UseManualTime()->Unit(benchmark::kSecond);
 BENCHMARK(BM_LongformHour)->Iterations(1)->UseManualTime()->Unit(benchmark::kSecond);
+BENCHMARK(BM_LongAlignHour)->Iterations(1)->UseManualTime()->Unit(benchmark::kSecond);
 BENCHMARK_MAIN();

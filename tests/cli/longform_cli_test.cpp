@@ -75,6 +75,35 @@ TEST(LongformCli, SummaryListsFindings) {
     EXPECT_THAT(result.out, HasSubstr("seam: click"));
 }
 
+TEST(LongformCli, TextFileGivesParagraphsAndSentences) {
+    TempDir dir;
+    const ShortRead r = writeRead(dir);
+    const std::string text = dir.file("chapter.txt"), tiers = dir.file("tiers.json");
+    std::ofstream(text) << r.read.text;
+    const auto result = runCli({"longform", r.audio, "--text-file", text, "--tiers", tiers, "--json", "-"});
+    ASSERT_EQ(result.exitCode, 0) << result.err;
+    const auto j = nlohmann::json::parse(result.out);
+    ASSERT_EQ(j["text"]["paragraphs"].size(), 2u);
+    ASSERT_EQ(j["text"]["sentences"].size(), 12u);
+    EXPECT_NEAR(j["text"]["sentences"][3]["start_s"].get<double>(), r.read.sentenceStartS[3], 0.15);
+    EXPECT_EQ(j["text"]["sentences"][3]["text"], test::longReadSentence(3));
+    const auto t = nlohmann::json::parse(std::ifstream(tiers));
+    EXPECT_FALSE(t.dump().empty());
+}
+
+TEST(LongformCli, TextCoveringHalfTheAudioIsBadInput) {
+    TempDir dir;
+    const ShortRead r = writeRead(dir);
+    const std::string text = dir.file("half.txt");
+    std::ofstream out(text);
+    for (int i = 0; i < 6; ++i) out << test::longReadSentence(i) << "\n";
+    out.close();
+    const auto result = runCli({"longform", r.audio, "--text-file", text});
+    EXPECT_EQ(result.exitCode, 3);
+    test::expectOneLineError(result, text);
+    EXPECT_THAT(result.err, HasSubstr("covers only"));
+}
+
 TEST(LongformCli, ThreeSecondTakeIsTooShort) {
     TempDir dir;
     const std::string path = dir.file("short.wav");

@@ -23,7 +23,8 @@ Json number(double v, double scale = 1000.0) {
 
 }  // namespace
 
-std::string longformToJson(const LongformReport& report, const LongformRules& rules, const LongformJsonInfo& info) {
+std::string longformToJson(const LongformReport& report, const LongformRules& rules, const LongformJsonInfo& info,
+                           const LongAlignResult* text) {
     const LongTakeSeries& s = report.analysis.series;
     Json doc;
     doc["file"] = info.file;
@@ -77,6 +78,21 @@ std::string longformToJson(const LongformReport& report, const LongformRules& ru
                          {"click_time_s", number(j.clickTimeS, 1e4)},
                          {"envelope_jump", number(j.envelopeJump, 100)}});
     doc["joins"] = joins;
+    if (text) {
+        const auto intervals = [&](std::string_view name) {
+            Json list = Json::array();
+            if (const Tier* t = text->tiers.find(name))
+                for (const Interval& i : t->intervals)
+                    list.push_back({{"start_s", number(i.startS)}, {"end_s", number(i.endS)}, {"text", i.label}});
+            return list;
+        };
+        const Tier* words = text->tiers.find(kWordsTier);
+        doc["text"] = {{"chunks", text->chunks},
+                       {"words", words ? words->intervals.size() : 0},
+                       {"mean_confidence", number(text->meanConfidence)},
+                       {"paragraphs", intervals(kParagraphsTier)},
+                       {"sentences", intervals(kSentencesTier)}};
+    }
     return doc.dump(2);
 }
 

@@ -4,6 +4,7 @@
 #pragma once
 
 #include "earmark/longform/findings.hpp"
+#include "earmark/longform/long_alignment.hpp"
 
 #include <string>
 #include <vector>
@@ -16,7 +17,10 @@ struct LongformJsonInfo {
     int channels = 0;
 };
 
-std::string longformToJson(const LongformReport& report, const LongformRules& rules, const LongformJsonInfo& info);
+// `text`, when given, adds "text": the paragraph and sentence intervals and
+// the word count and mean confidence of the long text alignment.
+std::string longformToJson(const LongformReport& report, const LongformRules& rules, const LongformJsonInfo& info,
+                           const LongAlignResult* text = nullptr);
 
 // A chunk list: one join time in seconds per line (the start of every chunk
 // but the first); blank lines and lines starting with '#' are skipped.
