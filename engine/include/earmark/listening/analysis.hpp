@@ -8,6 +8,8 @@
 //   interval over those answers, and a percentile bootstrap that resamples
 //   raters and lines (both with replacement, the same draw for every
 //   system), since answers of one rater or one line are not independent.
+//   Resampling both ways over-covers when there is no rater or line effect
+//   (Owen 2007, Ann. Appl. Statist. 1:386–411 — from memory): conservative.
 //   CMOS values are "system against reference".
 // - MOS / MUSHRA pairs of systems: the rater×line answers both systems got,
 //   paired; Wilcoxon signed-rank and paired t on the differences a − b. The
