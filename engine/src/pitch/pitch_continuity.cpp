@@ -1,6 +1,7 @@
 #include "earmark/pitch/pitch_continuity.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/pitch/noise_floor.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -26,8 +27,17 @@ void dropShortVoicedRuns(std::span<std::uint8_t> choice, int minRunFrames) {
 
 std::vector<std::uint8_t> trackCandidates(std::span<const PitchCandidates> candidates,
                                           std::span<const std::uint8_t> allowed, const ContinuityCosts& costs) {
+    const std::vector<float> clean(candidates.size(), 0.0f);
+    return trackCandidates(candidates, allowed, clean, costs);
+}
+
+std::vector<std::uint8_t> trackCandidates(std::span<const PitchCandidates> candidates,
+                                          std::span<const std::uint8_t> allowed,
+                                          std::span<const float> noiseShare, const ContinuityCosts& costs) {
     if (candidates.size() != allowed.size())
         throw ParamError("trackCandidates.allowed", "must have one entry per frame of candidates");
+    if (candidates.size() != noiseShare.size())
+        throw ParamError("trackCandidates.noiseShare", "must have one entry per frame of candidates");
     constexpr int K = PitchCandidates::kMax;
     constexpr int S = K + 1;  // state 0 = unvoiced, state 1 + k = candidate k
     constexpr double kInf = std::numeric_limits<double>::infinity();
@@ -43,7 +53,7 @@ std::vector<std::uint8_t> trackCandidates(std::span<const PitchCandidates> candi
     // voicing decision is not shifted by it.
     const auto fillLocal = [&](std::size_t i, std::array<double, S>& local, std::array<double, S>& logs) {
         local.fill(kInf);
-        local[0] = costs.unvoicedCost;
+        local[0] = barInNoise(noiseShare[i], costs.unvoicedCost, costs.noisyUnvoicedCostMax);
         const int m = voicedStates(i);
         if (m == 0) return;
         double shortest = kInf;

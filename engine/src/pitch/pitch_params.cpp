@@ -38,6 +38,8 @@ void PitchParams::validate() const {
     if (!(voicingMaxAperiodicity > 0.0 && voicingMaxAperiodicity <= 2.0))
         throw ParamError("PitchParams.voicingMaxAperiodicity",
                          "must be in (0, 2], got " + show(voicingMaxAperiodicity));
+    requireRange(noiseVoicingMaxAperiodicity, voicingMaxAperiodicity, 2.0, "noiseVoicingMaxAperiodicity",
+                 "must be in [voicingMaxAperiodicity (" + show(voicingMaxAperiodicity) + "), 2]");
     requireRange(silenceGateDb, -200.0, 0.0, "silenceGateDb");
     requireRange(absoluteFloorDb, -200.0, 0.0, "absoluteFloorDb");
     requireRange(minVoicedSeconds, 0.0, 10.0, "minVoicedSeconds");

@@ -4,11 +4,13 @@
 #include "earmark/dsp/frames.hpp"
 #include "earmark/dsp/resample.hpp"
 #include "earmark/pitch/pitch_continuity.hpp"
+#include "earmark/pitch/noise_floor.hpp"
 #include "earmark/pitch/yin_frame.hpp"
 
 #include <algorithm>
 #include <cmath>
 #include <cstdint>
+#include <limits>
 #include <vector>
 
 namespace earmark {
@@ -46,28 +48,52 @@ std::span<const float> samplesAt(std::span<const float> x, std::int64_t start, s
     return scratch;
 }
 
-// Per-frame results of the first pass (steps 2–6).
-struct FramePass {
-    std::vector<PitchCandidates> candidates;
-    std::vector<float> energyDb;
-};
+// Mean square (dB) of the span each frame reads; −300 for digital silence.
+std::vector<float> frameEnergiesDb(std::span<const float> x, std::int64_t frames, double centreStep, int span) {
+    std::vector<float> out(static_cast<std::size_t>(frames));
+    std::vector<float> edgeFrame(static_cast<std::size_t>(span));
+    for (std::int64_t i = 0; i < frames; ++i) {
+        const double centre = static_cast<double>(i) * centreStep;
+        const auto frame = samplesAt(x, std::llround(centre - 0.5 * span), edgeFrame);
+        double sum[4] = {0.0, 0.0, 0.0, 0.0};  // independent partial sums
+        std::size_t j = 0;
+        for (; j + 4 <= frame.size(); j += 4)
+            for (std::size_t u = 0; u < 4; ++u) sum[u] += static_cast<double>(frame[j + u]) * frame[j + u];
+        for (; j < frame.size(); ++j) sum[0] += static_cast<double>(frame[j]) * frame[j];
+        const double meanSquare = ((sum[0] + sum[1]) + (sum[2] + sum[3])) / span;
+        out[static_cast<std::size_t>(i)] = static_cast<float>(meanSquare > 1e-30 ? 10.0 * std::log10(meanSquare) : -300.0);
+    }
+    return out;
+}
 
-// Steps 2–6 over every frame. Step 6 needs each frame's d′ until the frames
-// `radius` ahead have their own estimate, so the last radius+1 frames' d and
-// d′ are kept in a small ring.
-FramePass firstPass(std::span<const float> x, std::int64_t frames,
-                    double centreStep, const YinGeometry& g, const PitchParams& params, int radius,
-                    const Progress& progress) {
-    FramePass out;
-    out.candidates.resize(static_cast<std::size_t>(frames));
-    out.energyDb.resize(static_cast<std::size_t>(frames));
+// Each frame's noise share (noise_floor.hpp) against the take's steady noise
+// floor, estimated from the frames wholly inside the signal (the zero padding
+// makes edge frames read low).
+std::vector<float> frameNoiseShares(std::span<const float> energyDb, std::size_t samples, double centreStep, int span) {
+    const NoiseFloorRule rule;
+    const auto first = static_cast<std::size_t>(std::ceil(0.5 * span / centreStep));
+    const double lastCentre = static_cast<double>(samples) - 0.5 * span;
+    const std::size_t end =
+        lastCentre < 0.0 ? 0 : std::min(energyDb.size(), static_cast<std::size_t>(std::floor(lastCentre / centreStep)) + 1);
+    const double floorDb = first < end ? steadyNoiseFloorDb(energyDb.subspan(first, end - first), rule)
+                                       : -std::numeric_limits<double>::infinity();
+    return noiseShares(energyDb, floorDb, rule);
+}
+
+// Steps 2–6 over every frame; the candidates of each. Step 4's absolute
+// threshold is per frame (raised in noisy frames, noise_floor.hpp). Step 6
+// needs each frame's d′ until the frames `radius` ahead have their own
+// estimate, so the last radius+1 frames' d and d′ are kept in a small ring.
+std::vector<PitchCandidates> firstPass(std::span<const float> x, std::int64_t frames, double centreStep,
+                                       const YinGeometry& g, std::span<const float> thresholds, int radius,
+                                       const Progress& progress) {
+    std::vector<PitchCandidates> out(static_cast<std::size_t>(frames));
     std::vector<YinDip> initial(static_cast<std::size_t>(frames));
 
     YinFrame yin(g);
     const auto lags = static_cast<std::size_t>(g.maxLag + 2);
     const auto slots = static_cast<std::size_t>(radius + 1);
     std::vector<float> ringD(slots * lags), ringN(slots * lags);
-    const auto threshold = static_cast<float>(params.threshold);
 
     const auto finalise = [&](std::int64_t t) {
         const std::span<const float> d(ringD.data() + static_cast<std::size_t>(t) % slots * lags, lags);
@@ -82,9 +108,9 @@ FramePass firstPass(std::span<const float> x, std::int64_t frames,
             const double guide = initial[static_cast<std::size_t>(lead)].lag;
             const int lo = std::max(g.minLag, static_cast<int>(std::floor(guide * (1.0 - kStep6Range))));
             const int hi = std::min(g.maxLag, static_cast<int>(std::ceil(guide * (1.0 + kStep6Range))));
-            if (lo <= hi) pick = pickDip(d, dn, lo, hi, threshold);
+            if (lo <= hi) pick = pickDip(d, dn, lo, hi, thresholds[static_cast<std::size_t>(t)]);
         }
-        auto& c = out.candidates[static_cast<std::size_t>(t)];
+        auto& c = out[static_cast<std::size_t>(t)];
         c.dips[0] = pick;
         c.count = 1 + deepestDips(d, dn, g.minLag, g.maxLag, pick.lag, std::span(c.dips).subspan(1));
     };
@@ -96,10 +122,7 @@ FramePass firstPass(std::span<const float> x, std::int64_t frames,
         const std::span<float> d(ringD.data() + static_cast<std::size_t>(i) % slots * lags, lags);
         const std::span<float> dn(ringN.data() + static_cast<std::size_t>(i) % slots * lags, lags);
         yin.compute(samplesAt(x, std::llround(centre - half), edgeFrame), d, dn);
-        const double meanSquare = yin.sumOfSquares() / g.span;
-        out.energyDb[static_cast<std::size_t>(i)] =
-            static_cast<float>(meanSquare > 1e-30 ? 10.0 * std::log10(meanSquare) : -300.0);
-        initial[static_cast<std::size_t>(i)] = pickDip(d, dn, g.minLag, g.maxLag, threshold);
+        initial[static_cast<std::size_t>(i)] = pickDip(d, dn, g.minLag, g.maxLag, thresholds[static_cast<std::size_t>(i)]);
         if (i >= radius) finalise(i - radius);
         if (i % kProgressEvery == 0) progress.report(static_cast<double>(i) / static_cast<double>(frames));
     }
@@ -136,13 +159,24 @@ PitchTrack analysePitch(const Signal& signal, const PitchParams& params, Progres
     const double centreStep = track.hopSeconds * rate;  // frame step in analysis samples
     const double maxPeriodSeconds = g.maxLag / rate;
     const int radius = std::max(1, static_cast<int>(std::floor(0.5 * maxPeriodSeconds / track.hopSeconds)));
-    FramePass pass = firstPass(x.samples, frames, centreStep, g, params, radius, progress.sub(0.1, 0.9));
+
+    // The noise floor and each frame's noise share (noise_floor.hpp) set the
+    // bars of step 4 and of voicing.
+    const std::vector<float> energyDb = frameEnergiesDb(x.samples, frames, centreStep, g.span);
+    const std::vector<float> noiseShare =
+        params.noiseAdaptiveVoicing ? frameNoiseShares(energyDb, x.samples.size(), centreStep, g.span)
+                                    : std::vector<float>(n, 0.0f);
+    std::vector<float> thresholds(n);
+    for (std::size_t i = 0; i < n; ++i)
+        thresholds[i] = static_cast<float>(barInNoise(noiseShare[i], params.threshold, params.noiseVoicingMaxAperiodicity));
+    const std::vector<PitchCandidates> candidates =
+        firstPass(x.samples, frames, centreStep, g, thresholds, radius, progress.sub(0.1, 0.9));
 
     // Voicing: the energy gates are hard; the aperiodicity bar is applied per
     // frame, or inside the continuity step's Viterbi search.
-    const double gateDb = std::max(params.absoluteFloorDb, loudLevelDb(pass.energyDb) + params.silenceGateDb);
+    const double gateDb = std::max(params.absoluteFloorDb, loudLevelDb(energyDb) + params.silenceGateDb);
     std::vector<std::uint8_t> loudEnough(n);
-    for (std::size_t i = 0; i < n; ++i) loudEnough[i] = pass.energyDb[i] >= gateDb;
+    for (std::size_t i = 0; i < n; ++i) loudEnough[i] = energyDb[i] >= gateDb;
     std::vector<std::uint8_t> choice(n, kUnvoiced);
     if (params.continuity) {
         ContinuityCosts costs;
@@ -151,12 +185,15 @@ PitchTrack analysePitch(const Signal& signal, const PitchParams& params, Progres
         costs.octaveJumpCost = params.octaveJumpCost;
         costs.freeOctavesPerFrame = params.freeGlideSemitonesPerSecond * track.hopSeconds / 12.0;
         costs.shorterLagPreference = params.shorterLagPreference;
-        choice = trackCandidates(pass.candidates, loudEnough, costs);
+        costs.noisyUnvoicedCostMax = params.noiseVoicingMaxAperiodicity;
+        choice = trackCandidates(candidates, loudEnough, noiseShare, costs);
         const int minRun = static_cast<int>(std::ceil(params.minVoicedSeconds / track.hopSeconds - 1e-9));
         dropShortVoicedRuns(choice, minRun);
     } else {
         for (std::size_t i = 0; i < n; ++i)
-            if (loudEnough[i] && pass.candidates[i].dips[0].aperiodicity <= params.voicingMaxAperiodicity)
+            if (loudEnough[i] && candidates[i].dips[0].aperiodicity <=
+                                      barInNoise(noiseShare[i], params.voicingMaxAperiodicity,
+                                                 params.noiseVoicingMaxAperiodicity))
                 choice[i] = 0;
     }
     progress.report(0.95);
@@ -165,7 +202,7 @@ PitchTrack analysePitch(const Signal& signal, const PitchParams& params, Progres
     std::vector<float> refineScratch(static_cast<std::size_t>(2 * refineReach));
     for (std::size_t i = 0; i < n; ++i) {
         const bool isVoiced = choice[i] != kUnvoiced;
-        const YinDip& dip = pass.candidates[i].dips[isVoiced ? choice[i] : 0];
+        const YinDip& dip = candidates[i].dips[isVoiced ? choice[i] : 0];
         track.aperiodicity[i] = dip.aperiodicity;
         track.confidence[i] = loudEnough[i] ? std::clamp(1.0f - dip.aperiodicity, 0.0f, 1.0f) : 0.0f;
         if (isVoiced) {

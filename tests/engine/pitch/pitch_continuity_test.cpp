@@ -102,5 +102,27 @@ TEST(PitchContinuity, RejectsMismatchedSizesAndHandlesEmpty) {
     EXPECT_TRUE(trackCandidates({}, {}).empty());
 }
 
+// In a frame whose energy the noise floor explains to a share ρ, the cost of
+// "unvoiced" is barInNoise(ρ, 0.35, 0.6) (noise_floor.hpp): a quiet voiced run
+// reading d′ = 0.45 is voiced at ρ = 0.3 (bar 0.545) but not in a clean take,
+// and noise reading 0.7 stays unvoiced even at ρ = 0.9 (bar capped at 0.6).
+TEST(PitchContinuity, NoiseShareRaisesTheCostOfUnvoiced) {
+    std::vector<PitchCandidates> c;
+    for (int i = 0; i < 20; ++i) c.push_back(frame({{90.0f, 0.45f}}));
+    for (int i = 0; i < 20; ++i) c.push_back(frame({{140.0f, 0.70f}}));
+    const std::vector<std::uint8_t> allowed(c.size(), 1);
+    std::vector<float> share(c.size(), 0.3f);
+    for (std::size_t i = 20; i < share.size(); ++i) share[i] = 0.9f;
+    const auto noisy = trackCandidates(c, allowed, share, ContinuityCosts{});
+    const auto clean = trackCandidates(c, allowed, ContinuityCosts{});
+    for (std::size_t i = 0; i < 20; ++i) {
+        EXPECT_EQ(noisy[i], 0) << i;
+        EXPECT_EQ(clean[i], kUnvoiced) << i;
+    }
+    for (std::size_t i = 20; i < c.size(); ++i) EXPECT_EQ(noisy[i], kUnvoiced) << i;
+    const std::vector<float> wrongSize(3, 0.0f);
+    EXPECT_THROW(trackCandidates(c, allowed, wrongSize, ContinuityCosts{}), ParamError);
+}
+
 }  // namespace
 }  // namespace earmark

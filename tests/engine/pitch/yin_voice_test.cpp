@@ -11,10 +11,10 @@
 // must not exceed that of aubio's "yin" or "yinfast" (a general-purpose
 // reference library) on the same signal.
 #include "earmark/pitch/yin.hpp"
+#include "aubio_reference.hpp"
 #include "pitch_scoring.hpp"
 #include "support/test_signals.hpp"
 
-#include <aubio/aubio.h>
 #include <gtest/gtest.h>
 
 #include <cstdio>
@@ -27,14 +27,13 @@ namespace {
 
 using test::FrameEstimate;
 using test::PitchScores;
+using test::aubioFrames;
+using test::describe;
+using test::earmarkFrames;
 using test::VoiceSegment;
 using Kind = VoiceSegment::Kind;
 
 constexpr double kRate = 22050.0;
-// aubio's buffer: 768 samples (34.8 ms) ≈ the 33.6 ms Earmark's frame spans at
-// the defaults, an FFT-friendly size; its hop: 110 samples ≈ 5 ms.
-constexpr int kAubioBuffer = 768;
-constexpr int kAubioHop = 110;
 // Scoring half-window: covers both methods' frames (17.4 ms), plus margin.
 constexpr double kHalfWindowSeconds = 0.02;
 
@@ -67,48 +66,6 @@ std::vector<VoiceSegment> speaker(int which) {
     }
 }
 const char* speakerName(int which) { return which == 0 ? "low" : which == 1 ? "mid" : "high"; }
-
-std::vector<FrameEstimate> earmarkFrames(const Signal& s) {
-    const PitchTrack t = analysePitch(s);
-    std::vector<FrameEstimate> out(t.size());
-    for (std::size_t i = 0; i < t.size(); ++i) out[i] = {t.timeSeconds(i), t.f0Hz[i]};
-    return out;
-}
-
-// aubio frame k (after feeding hop block k) holds samples ending at the
-// (k+1)·hop-th sample; its centre is (k+1)·hop − buffer/2. A frame counts as
-// voiced when aubio reports a pitch (its −50 dB silence gate passed) with
-// confidence 1 − d′ >= 1 − voicingMaxAperiodicity: the same aperiodicity bar
-// Earmark uses, since aubio itself always returns some period.
-std::vector<FrameEstimate> aubioFrames(const Signal& s, const char* method) {
-    const double minConfidence = 1.0 - PitchParams{}.voicingMaxAperiodicity;
-    aubio_pitch_t* p = new_aubio_pitch(method, kAubioBuffer, kAubioHop, static_cast<uint_t>(s.sampleRate));
-    aubio_pitch_set_unit(p, "Hz");
-    aubio_pitch_set_tolerance(p, static_cast<smpl_t>(PitchParams{}.threshold));
-    fvec_t* in = new_fvec(kAubioHop);
-    fvec_t* out = new_fvec(1);
-    std::vector<FrameEstimate> frames;
-    const std::size_t blocks = s.size() / kAubioHop;
-    for (std::size_t k = 0; k < blocks; ++k) {
-        for (int j = 0; j < kAubioHop; ++j) in->data[j] = s.samples[k * kAubioHop + static_cast<std::size_t>(j)];
-        aubio_pitch_do(p, in, out);
-        const double centre = (static_cast<double>((k + 1) * kAubioHop) - kAubioBuffer / 2.0) / s.sampleRate;
-        const double f = out->data[0];
-        const bool isVoiced = f > 0.0 && aubio_pitch_get_confidence(p) >= minConfidence;
-        if (centre >= 0.0) frames.push_back({centre, isVoiced ? f : 0.0});
-    }
-    del_fvec(out);
-    del_fvec(in);
-    del_aubio_pitch(p);
-    return frames;
-}
-
-std::string describe(const PitchScores& s) {
-    char buf[160];
-    std::snprintf(buf, sizeof buf, "GPE %.2f %%, fine %.3f %%, VDE %.2f %% (%d frames scored, %d voiced in both)",
-                  100 * s.gpe, 100 * s.fineError, 100 * s.vde, s.scoredFrames, s.bothVoiced);
-    return buf;
-}
 
 // Noise conditions: clean; 20 dB SNR (the bars apply); 10 dB SNR (harder: the
 // quiet stretch sits near −2 dB SNR; only the comparison with aubio applies).

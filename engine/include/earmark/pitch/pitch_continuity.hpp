@@ -5,7 +5,7 @@
 //
 // States per frame: U (unvoiced) and V_k (candidate k; k = 0 is YIN's own
 // pick from steps 4–6, always present). The path minimises the sum of
-//   local costs:  U → unvoicedCost (the voicing threshold on d′);
+//   local costs:  U → unvoicedCost (the voicing threshold on d′; raised in noisy frames);
 //                 V_k → d′_k + shorterLagPreference·log2(lag_k / shortest lag
 //                       of the frame), all V_k shifted together so that the
 //                       cheapest keeps the cost min_k d′_k: the preference
@@ -62,6 +62,7 @@ struct ContinuityCosts {
                                               // frames, beyond the free allowance below
     double freeOctavesPerFrame = 1.0 / 12.0;  // F0 change per frame that costs nothing
     double shorterLagPreference = 0.1;        // per octave of lag above the frame's shortest candidate
+    double noisyUnvoicedCostMax = 0.6;        // highest cost of U in a noisy frame (noise_floor.hpp)
 };
 
 // Marker in the result of trackCandidates for an unvoiced frame.
@@ -73,6 +74,13 @@ inline constexpr std::uint8_t kUnvoiced = 0xFF;
 std::vector<std::uint8_t> trackCandidates(std::span<const PitchCandidates> candidates,
                                           std::span<const std::uint8_t> allowed,
                                           const ContinuityCosts& costs = {});
+
+// The same for frames with a noise share ρ each (noise_floor.hpp; 0 = clean):
+// the cost of U becomes barInNoise(ρ, unvoicedCost, noisyUnvoicedCostMax).
+// Throws ParamError if the three spans differ in size.
+std::vector<std::uint8_t> trackCandidates(std::span<const PitchCandidates> candidates,
+                                          std::span<const std::uint8_t> allowed,
+                                          std::span<const float> noiseShare, const ContinuityCosts& costs);
 
 // Sets to kUnvoiced every run of voiced entries (!= kUnvoiced) shorter than minRunFrames.
 void dropShortVoicedRuns(std::span<std::uint8_t> choice, int minRunFrames);

@@ -11,9 +11,13 @@
 //  1. Per frame, the paper's steps (see yin_frame.hpp): (2) difference
 //     function d(τ) over an integration window W = one longest period, its
 //     cross term by FFT correlation and its energy terms by running sums;
-//     (3) cumulative-mean-normalised difference d′; (4) absolute threshold;
-//     (5) parabolic interpolation. A frame reads W + maxLag + 1 samples
-//     centred on its time (≈ 33.6 ms for the 60 Hz default floor).
+//     (3) cumulative-mean-normalised difference d′; (4) absolute threshold
+//     (`threshold`, raised in noisy frames as the voicing bar in 3 is, and
+//     for the same reason: in noise no dip of a quiet voice reaches the
+//     clean threshold, and the global minimum is as often a multiple of the
+//     period as the period itself); (5) parabolic interpolation. A frame
+//     reads W + maxLag + 1 samples centred on its time (≈ 33.6 ms for the
+//     60 Hz default floor).
 //  2. Step 6, best local estimate, as in the paper: among the frames within
 //     ±(longest period)/2 of frame t (at least ±1 frame), take the one whose
 //     estimate has the lowest d′; if that is not t, search t's d′ again
@@ -21,11 +25,16 @@
 //  3. Voicing: a frame can be voiced only if its energy (RMS over the
 //     frame's span) passes both gates: >= `absoluteFloorDb` dBFS and >= the
 //     take's loud level + `silenceGateDb` (loud level = 95th percentile of
-//     frame energies). Without continuity, a frame is then voiced when d′ at
-//     its estimate is at most `voicingMaxAperiodicity`.
+//     frame energies). Its voicing bar on d′ is `voicingMaxAperiodicity`,
+//     raised where the take's noise floor (5th percentile of frame energies)
+//     explains a share ρ of the frame's energy to bar + (1 − bar)·ρ, at most
+//     `noiseVoicingMaxAperiodicity` (noise_floor.hpp; off with
+//     `noiseAdaptiveVoicing` = false): a quiet voiced frame in steady noise
+//     reads d′ ≈ ρ even if its periodic part is perfect. Without continuity,
+//     a frame is then voiced when d′ at its estimate is at most its bar.
 //  4. Continuity (pitch_continuity.hpp), on by default: one Viterbi search
 //     over "unvoiced" and each frame's candidates (YIN's pick and the next 3
-//     deepest dips of d′) with `voicingMaxAperiodicity` as the cost of
+//     deepest dips of d′) with the frame's voicing bar as the cost of
 //     "unvoiced", `voicingSwitchCost` per voicing change,
 //     `octaveJumpCost`·|log2 ratio| between voiced neighbours (beyond
 //     `freeGlideSemitonesPerSecond`, so fast glides stay voiced) and a soft
@@ -82,6 +91,11 @@ struct PitchParams {
                                     // frame energies. Valid: [-200, 0]
     double absoluteFloorDb = -70.0; // frames below this RMS, dBFS, are always unvoiced.
                                     // Valid: [-200, 0]
+    bool noiseAdaptiveVoicing = true;  // raise the bars on d′ (threshold, voicingMaxAperiodicity)
+                                       // where the take's noise floor explains part of a frame's
+                                       // energy (1 and 3 above, noise_floor.hpp)
+    double noiseVoicingMaxAperiodicity = 0.6;  // the highest those raised bars go (white noise
+                                               // alone reads ≈ 0.7–1). Valid: [voicingMaxAperiodicity, 2]
     bool continuity = true;         // run the continuity step (4 above)
     double minVoicedSeconds = 0.03; // shorter voiced runs are removed by the continuity
                                     // step, s. Valid: [0, 10]
