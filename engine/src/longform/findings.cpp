@@ -263,6 +263,7 @@ std::vector<Finding> findMonotoneStretches(const LongTakeTracks& tr, const LongT
     const auto& r = rules.monotone;
     if (!r.enabled) return out;
     const std::vector<SpeechSegment> segments = speechSegments(tr.speech);
+    if (segments.empty()) return out;
     const auto segmentMonotone = [&](std::size_t s) {
         const auto range = voicedRangeF0(tr, segments[s].startS, segments[s].endS);
         return range.empty() ? std::optional<bool>{} : std::optional<bool>{range[0] < r.maxRangeSt};
