@@ -19,5 +19,6 @@ int runCompare(const std::vector<std::string>& args);
 int runModel(const std::vector<std::string>& args);
 int runListen(const std::vector<std::string>& args);
 int runLongform(const std::vector<std::string>& args);
+int runArtefacts(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

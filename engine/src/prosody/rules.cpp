@@ -81,6 +81,23 @@ std::vector<Section> layout(ScanRules& r) {
         {"monotone_stretch", {{"enabled", &r.longform.monotone.enabled},
                               {"max_range_st", &r.longform.monotone.maxRangeSt},
                               {"min_s", &r.longform.monotone.minSeconds}}},
+        {"click", with(switchFields(r.click), {{"min_ratio", &r.click.params.minRatio},
+                                               {"min_isolation", &r.click.params.minIsolation},
+                                               {"isolation_s", &r.click.params.isolationSeconds},
+                                               {"floor_below_speech_db", &r.click.params.floorBelowSpeechDb}})},
+        {"noise_burst", with(switchFields(r.noiseBurst), {{"band_hz", &r.noiseBurst.params.bandHz},
+                                                          {"min_excess_db", &r.noiseBurst.params.minExcessDb},
+                                                          {"max_s", &r.noiseBurst.params.maxSeconds},
+                                                          {"below_speech_db", &r.noiseBurst.params.belowSpeechDb}})},
+        {"buzz", with(switchFields(r.buzz), {{"min_aperiodicity", &r.buzz.params.minAperiodicity},
+                                             {"max_below_speech_db", &r.buzz.params.maxBelowSpeechDb},
+                                             {"low_hz", &r.buzz.params.lowHz},
+                                             {"min_low_share", &r.buzz.params.minLowShare},
+                                             {"min_s", &r.buzz.params.minSeconds}})},
+        {"dropout", with(switchFields(r.dropout), {{"min_depth_db", &r.dropout.params.minDepthDb},
+                                                   {"max_s", &r.dropout.params.maxSeconds},
+                                                   {"edge_below_speech_db", &r.dropout.params.edgeBelowSpeechDb},
+                                                   {"max_f0_step_st", &r.dropout.params.maxF0StepSt}})},
     };
 }
 
@@ -170,7 +187,8 @@ void ScanRules::validate() const {
         {"flat", &flat}, {"pitch_jump", &pitchJump}, {"pause_too_long", &pauseTooLong},
         {"pause_missing", &pauseMissing}, {"rushed", &rushed}, {"dragged", &dragged},
         {"clipping", &clipping}, {"truncation", &truncation}, {"leading_silence", &leadingSilence},
-        {"trailing_silence", &trailingSilence}, {"loudness", &loudness}, {"dc_offset", &dcOffset}};
+        {"trailing_silence", &trailingSilence}, {"loudness", &loudness}, {"dc_offset", &dcOffset},
+        {"click", &click}, {"noise_burst", &noiseBurst}, {"buzz", &buzz}, {"dropout", &dropout}};
     for (const auto& [name, sw] : switches) nonNegative(sw->weight, name, "weight");
     positive(flat.maxRangeSt, "flat", "max_range_st");
     if (flat.minWords < 2) throw ParamError("rules.flat.min_words", "must be >= 2");
@@ -194,6 +212,18 @@ void ScanRules::validate() const {
     if (loudness.minTakes < 2) throw ParamError("rules.loudness.min_takes", "must be >= 2");
     positive(dcOffset.maxAbs, "dc_offset", "max_abs");
     validateLongform(longform);
+    // The detectors check their own parameters; name the section in the error.
+    auto detector = [](const char* section, auto&& check) {
+        try {
+            check();
+        } catch (const ParamError& e) {
+            throw ParamError(std::string("rules.") + section, e.subject() + " " + e.problem());
+        }
+    };
+    detector("click", [&] { click.params.validate(); });
+    detector("noise_burst", [&] { noiseBurst.params.validate(); });
+    detector("buzz", [&] { buzz.params.validate(); });
+    detector("dropout", [&] { dropout.params.validate(); });
 }
 
 ScanRules parseRules(const std::string& json, const std::string& origin) {

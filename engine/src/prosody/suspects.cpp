@@ -6,11 +6,12 @@
 #include <array>
 #include <cmath>
 #include <cstdio>
+#include <functional>
 
 namespace earmark {
 namespace {
 
-constexpr std::array<std::pair<SuspectKind, const char*>, 13> kNames = {{
+constexpr std::array<std::pair<SuspectKind, const char*>, 17> kNames = {{
     {SuspectKind::Flat, "flat"},
     {SuspectKind::PitchJump, "pitch-jump"},
     {SuspectKind::PauseTooLong, "pause-too-long"},
@@ -24,6 +25,10 @@ constexpr std::array<std::pair<SuspectKind, const char*>, 13> kNames = {{
     {SuspectKind::Loud, "loud"},
     {SuspectKind::Quiet, "quiet"},
     {SuspectKind::DcOffset, "dc-offset"},
+    {SuspectKind::Click, "click"},
+    {SuspectKind::NoiseBurst, "noise-burst"},
+    {SuspectKind::Buzz, "buzz"},
+    {SuspectKind::Dropout, "dropout"},
 }};
 
 // Shortest decimal form with at most `decimals` places ("2", "1.5", "0.04").
@@ -240,7 +245,9 @@ double scaleOf(const TakeSuspect& s) {
     switch (s.kind) {
         case SuspectKind::Clipping: return std::max(1.0, std::fabs(s.threshold));
         case SuspectKind::DcOffset: return std::max(0.001, std::fabs(s.threshold));
-        case SuspectKind::Truncation: return std::max(1.0, std::fabs(s.threshold));
+        case SuspectKind::Truncation:
+        case SuspectKind::NoiseBurst:
+        case SuspectKind::Dropout: return std::max(1.0, std::fabs(s.threshold));
         default: return std::max(1e-9, std::fabs(s.threshold));
     }
 }
@@ -260,6 +267,10 @@ const RuleSwitch& switchOf(SuspectKind kind, const ScanRules& r) {
         case SuspectKind::Loud:
         case SuspectKind::Quiet: return r.loudness;
         case SuspectKind::DcOffset: return r.dcOffset;
+        case SuspectKind::Click: return r.click;
+        case SuspectKind::NoiseBurst: return r.noiseBurst;
+        case SuspectKind::Buzz: return r.buzz;
+        case SuspectKind::Dropout: return r.dropout;
     }
     return r.flat;
 }
@@ -317,6 +328,58 @@ std::vector<TakeSuspect> findSuspects(const ProsodyContext& c, const TakeMeasure
                  m.level.dcOffset < 0 ? -rules.dcOffset.maxAbs : rules.dcOffset.maxAbs, "FS", 0.0, m.durationS,
                  "mean sample value " + num(m.level.dcOffset, 4) + " of full scale (beyond ±" +
                      num(rules.dcOffset.maxAbs, 4) + ")"));
+    return out;
+}
+
+std::vector<TakeSuspect> findArtefactSuspects(const Signal& signal, const ProsodyContext& c, const ScanRules& rules,
+                                              Progress progress) {
+    rules.validate();
+    std::vector<TakeSuspect> out;
+    const double level = c.activity().speechLevelDb;
+    const auto& words = c.transcript().words;
+    // The strongest event of one detector as a suspect, with the word it falls in.
+    auto add = [&](SuspectKind kind, const std::vector<ArtefactEvent>& events, double threshold, const char* unit,
+                   const std::function<std::string(const ArtefactEvent&)>& what) {
+        if (events.empty()) return;
+        const auto worst = std::max_element(events.begin(), events.end(),
+                                            [](const auto& a, const auto& b) { return a.value < b.value; });
+        std::string reason = what(*worst) + " at " + timeSpan(worst->startS, worst->endS);
+        if (const long w = wordAt(words, 0.5 * (worst->startS + worst->endS)); w >= 0)
+            reason += " in " + quoteWords(tokensOf(c), static_cast<std::size_t>(w), static_cast<std::size_t>(w));
+        if (events.size() > 1) reason += ", " + std::to_string(events.size()) + " in the take";
+        out.push_back(make(kind, worst->value, threshold, unit, worst->startS, worst->endS, reason));
+    };
+    if (rules.click.enabled) {
+        const auto& p = rules.click.params;
+        add(SuspectKind::Click, findClicks(signal, level, p, progress.sub(0.0, 0.5)), p.minRatio, "x",
+            [&](const ArtefactEvent& e) {
+                return "a sample " + num(e.value, 0) + " times the local prediction error (≥ " + num(p.minRatio) + ")";
+            });
+    }
+    if (rules.noiseBurst.enabled) {
+        const auto& p = rules.noiseBurst.params;
+        add(SuspectKind::NoiseBurst, findNoiseBursts(signal, c.pitch(), level, p, progress.sub(0.5, 0.7)),
+            p.minExcessDb, "dB", [&](const ArtefactEvent& e) {
+                return num(e.value, 1) + " dB more energy above " + num(p.bandHz / 1000, 1) +
+                       " kHz than around it (≥ " + num(p.minExcessDb) + " dB)";
+            });
+    }
+    if (rules.buzz.enabled) {
+        const auto& p = rules.buzz.params;
+        add(SuspectKind::Buzz, findBuzz(signal, c.pitch(), level, p, progress.sub(0.7, 0.9)), p.minSeconds, "s",
+            [&](const ArtefactEvent& e) {
+                return num(e.value) + " s of speech-level sound without periodicity (aperiodicity ≥ " +
+                       num(p.minAperiodicity) + ", ≥ " + num(p.minSeconds) + " s)";
+            });
+    }
+    if (rules.dropout.enabled) {
+        const auto& p = rules.dropout.params;
+        add(SuspectKind::Dropout, findDropouts(signal, c.pitch(), level, p, progress.sub(0.9, 1.0)), p.minDepthDb,
+            "dB", [&](const ArtefactEvent& e) {
+                return num((e.endS - e.startS) * 1000, 0) + " ms drop " + num(e.value, 0) +
+                       " dB below the speech level (≥ " + num(p.minDepthDb) + " dB, ≤ " + num(p.maxSeconds) + " s)";
+            });
+    }
     return out;
 }
 

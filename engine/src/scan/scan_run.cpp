@@ -48,6 +48,8 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
                 row.status += "; long-form not measured: " + e.problem();
             }
         }
+        for (auto& s : findArtefactSuspects(analysis.signal, context, settings.rules, progress))
+            row.suspects.push_back(std::move(s));
     } catch (const Cancelled&) {
         throw;
     } catch (const std::bad_alloc&) {

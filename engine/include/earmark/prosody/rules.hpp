@@ -9,6 +9,10 @@
 #pragma once
 
 #include "earmark/longform/longform_rules.hpp"
+#include "earmark/artefacts/buzz.hpp"
+#include "earmark/artefacts/clicks.hpp"
+#include "earmark/artefacts/dropouts.hpp"
+#include "earmark/artefacts/noise_bursts.hpp"
 #include "earmark/prosody/prosody_context.hpp"
 
 #include <cstdint>
@@ -59,6 +63,20 @@ struct DcOffsetRule : RuleSwitch {
     double maxAbs = 0.01;                  // mean sample value, full scale 1.0
 };
 
+// The artefact detectors' rules: the detector's parameters (earmark/artefacts/).
+struct ClickRule : RuleSwitch {
+    ClickParams params;
+};
+struct NoiseBurstRule : RuleSwitch {
+    NoiseBurstParams params;
+};
+struct BuzzRule : RuleSwitch {
+    BuzzParams params;
+};
+struct DropoutRule : RuleSwitch {
+    DropoutParams params;
+};
+
 struct ScanRules {
     PauseParams pause;                     // section "measure"
     FlatRule flat;
@@ -73,6 +91,10 @@ struct ScanRules {
     SilenceRule trailingSilence{{}, 1.5};
     LoudnessRule loudness;
     DcOffsetRule dcOffset;
+    ClickRule click{{true, 2.0}, {}};
+    NoiseBurstRule noiseBurst{{false, 2.0}, {}};  // off: below the detection bar (docs/scan.md)
+    BuzzRule buzz{{true, 2.0}, {}};
+    DropoutRule dropout{{false, 2.0}, {}};        // off: below the detection bar (docs/scan.md)
     double scoreCapPerSuspect = 3.0;       // section "score": one suspect adds at most weight × cap
     LongformRules longform;                // sections "longform", "seam", "level_drift", "pitch_drift",
                                            // "rate_drift", "timbre_shift", "monotone_stretch"

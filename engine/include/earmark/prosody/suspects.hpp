@@ -17,12 +17,13 @@ namespace earmark {
 enum class SuspectKind {
     Flat, PitchJump, PauseTooLong, PauseMissing, Rushed, Dragged, Clipping, Truncation,
     LeadingSilence, TrailingSilence, Loud, Quiet, DcOffset,
+    Click, NoiseBurst, Buzz, Dropout,  // artefacts of the samples (findArtefactSuspects)
 };
 
 // Names match the subtypes of the mark categories where one exists:
 // "flat", "pitch-jump", "pause-too-long", "pause-missing", "rushed", "dragged",
 // "clipping", "truncation", "leading-silence", "trailing-silence", "loud",
-// "quiet", "dc-offset".
+// "quiet", "dc-offset", "click", "noise-burst", "buzz", "dropout".
 const char* suspectName(SuspectKind kind);
 std::optional<SuspectKind> suspectKindFromName(const std::string& name);
 // Loud and Quiet compare a take with the whole set (second pass).
@@ -41,6 +42,13 @@ struct TakeSuspect {
 std::vector<TakeSuspect> findSuspects(const ProsodyContext& context, const TakeMeasures& measures,
                                   const ScanRules& rules);
 
+// The artefact rules (click, noise-burst, buzz, dropout) over the take's
+// samples (earmark/artefacts/), with the context's F0 track and speech
+// level; one suspect per kind, the strongest (for buzz: the longest).
+// Throws ParamError for invalid rules, Cancelled via `progress`.
+std::vector<TakeSuspect> findArtefactSuspects(const Signal& signal, const ProsodyContext& context,
+                                              const ScanRules& rules, Progress progress = {});
+
 // The set-level loudness rule for one take: Loud or Quiet when |lufs − median|
 // exceeds the limit; empty otherwise. [0, durationS] is the span.
 std::optional<TakeSuspect> loudnessSuspect(double lufs, double setMedianLufs, double durationS,
@@ -48,7 +56,7 @@ std::optional<TakeSuspect> loudnessSuspect(double lufs, double setMedianLufs, do
 
 // Score of one suspect: weight × (1 + min(cap − 1, |value − threshold| / scale)),
 // scale = |threshold| (at least 1 sample for clipping, 0.001 for DC offset,
-// 1 dB for truncation). So a suspect just past its threshold adds its weight,
+// 1 dB for truncation and the dB-valued artefacts). So a suspect just past its threshold adds its weight,
 // and one far past adds at most weight × cap.
 double suspectScore(const TakeSuspect& suspect, const ScanRules& rules);
 double totalScore(const std::vector<TakeSuspect>& suspects, const ScanRules& rules);
