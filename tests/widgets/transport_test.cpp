@@ -96,3 +96,47 @@ TEST(Transport, StartWithNothingToPlayStaysStopped) {
 
 }  // namespace
 }  // namespace earmark::widgets
+
+namespace earmark::widgets {
+namespace {
+
+TEST(PlaybackRate, StepsWalkTheLadderAndStopAtItsEnds) {
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(1.0, -1), 0.85);
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(1.0, -3), 0.5);
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(1.0, 1), 1.25);
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(0.25, -1), 0.25);
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(2.0, 5), 2.0);
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(0.6, 1), 0.7);   // between rungs: the next one up
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(0.6, -1), 0.5);  // or down
+    EXPECT_DOUBLE_EQ(stepPlaybackRate(0.6, 0), 0.6);
+}
+
+TEST(Transport, SlowedPlayheadMovesAtTheRate) {
+    Transport t;
+    t.setRate(0.5);
+    ASSERT_TRUE(t.start(PlayMode::Selection, context()));  // 4–6 s, heard over 4 s
+    EXPECT_DOUBLE_EQ(*t.advance(1.0), 4.5);
+    EXPECT_DOUBLE_EQ(*t.advance(3.9), 5.95);
+    EXPECT_FALSE(t.advance(4.0));
+    t.setRate(0.1);
+    EXPECT_DOUBLE_EQ(t.rate(), 0.25);
+    t.setRate(9.0);
+    EXPECT_DOUBLE_EQ(t.rate(), 2.0);
+}
+
+TEST(Transport, LoopToggleAndCrossfadeShapeThePass) {
+    Transport t;
+    t.setLooping(true);
+    t.setRate(0.25);
+    t.setLoopCrossfade(0.01);
+    ASSERT_TRUE(t.start(PlayMode::Selection, context()));  // looped: 2 s heard over 8 s, each pass 7.99 s
+    ASSERT_TRUE(t.segment()->loop);
+    EXPECT_NEAR(*t.advance(7.99 + 2.0), 4.5, 1e-9);
+    EXPECT_TRUE(t.playing());
+    // The rate in force at start() holds until the next start().
+    t.setRate(1.0);
+    EXPECT_NEAR(*t.advance(1.0), 4.25, 1e-9);
+}
+
+}  // namespace
+}  // namespace earmark::widgets

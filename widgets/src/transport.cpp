@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <iterator>
 
 namespace earmark::widgets {
 
@@ -29,8 +30,33 @@ std::optional<PlaySegment> planPlayback(PlayMode mode, const PlayContext& c) {
     return s;
 }
 
+double stepPlaybackRate(double rate, int steps) {
+    constexpr std::ptrdiff_t count = std::size(kPlaybackRates);
+    constexpr double eps = 1e-9;
+    if (steps == 0) return rate;
+    std::ptrdiff_t index;
+    if (steps > 0) {  // the first rung above, then steps − 1 more
+        index = count;
+        for (std::ptrdiff_t i = count - 1; i >= 0; --i)
+            if (kPlaybackRates[i] > rate + eps) index = i;
+        index = index == count ? count - 1 : index + steps - 1;
+    } else {  // the last rung below, then |steps| − 1 more
+        index = -1;
+        for (std::ptrdiff_t i = 0; i < count; ++i)
+            if (kPlaybackRates[i] < rate - eps) index = i;
+        index = index < 0 ? 0 : index + steps + 1;
+    }
+    return kPlaybackRates[std::clamp<std::ptrdiff_t>(index, 0, count - 1)];
+}
+
+void Transport::setRate(double rate) {
+    rate_ = std::clamp(std::isfinite(rate) ? rate : 1.0, kPlaybackRates[0], std::end(kPlaybackRates)[-1]);
+}
+
 bool Transport::start(PlayMode mode, const PlayContext& context) {
+    if (looping_ && mode == PlayMode::Selection) mode = PlayMode::LoopSelection;
     segment_ = planPlayback(mode, context);
+    segmentRate_ = rate_;
     return segment_.has_value();
 }
 
@@ -40,12 +66,16 @@ std::optional<double> Transport::advance(double elapsed) {
     if (!segment_) return std::nullopt;
     const PlaySegment s = *segment_;
     elapsed = std::max(elapsed, 0.0);
-    if (s.loop) return s.start + std::fmod(elapsed, s.length());
-    if (elapsed >= s.length()) {
+    const double heard = s.length() / segmentRate_;  // output seconds of one pass
+    if (s.loop) {
+        const double pass = heard - crossfade_ > 0.001 ? heard - crossfade_ : heard;
+        return s.start + std::fmod(elapsed, pass) * segmentRate_;
+    }
+    if (elapsed >= heard) {
         segment_.reset();
         return std::nullopt;
     }
-    return s.start + elapsed;
+    return s.start + elapsed * segmentRate_;
 }
 
 std::optional<std::int64_t> Transport::sourceFrame(std::int64_t outputFrame, double rate) const {

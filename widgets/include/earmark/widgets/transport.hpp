@@ -37,6 +37,15 @@ struct PlaySegment {
 // (no selection, cursor at the end, span shorter than one millisecond).
 std::optional<PlaySegment> planPlayback(PlayMode mode, const PlayContext& context);
 
+// Playback speeds a rate step moves between (0.25× … 2×; 1 = as recorded).
+// The ladder is Earmark's own choice: finer near 1, coarse at the ends.
+inline constexpr double kPlaybackRates[] = {0.25, 0.35, 0.5, 0.7, 0.85, 1.0, 1.25, 1.5, 2.0};
+
+// The rate `steps` rungs above (positive) or below (negative) `rate` on the
+// ladder, stopping at its ends; a rate between rungs first moves to the
+// next rung in that direction.
+double stepPlaybackRate(double rate, int steps);
+
 class Transport {
 public:
     // Starts a segment; returns false (and stays stopped) if there is nothing to play.
@@ -45,16 +54,36 @@ public:
     bool playing() const { return segment_.has_value(); }
     const std::optional<PlaySegment>& segment() const { return segment_; }
 
-    // The playhead after `elapsedSeconds` of output. A one-shot segment stops
-    // at its end (returns empty and the transport is stopped); a loop wraps.
+    // Playback speed, clamped to [0.25, 2]; what is heard is the segment
+    // time-stretched to length / rate (earmark/playback/time_stretch.hpp).
+    // Takes effect at the next start().
+    void setRate(double rate);
+    double rate() const { return rate_; }
+
+    // Loop toggle: while on, PlayMode::Selection plays as LoopSelection.
+    void setLooping(bool on) { looping_ = on; }
+    bool looping() const { return looping_; }
+
+    // Cross-fade at the loop point, in output seconds (earmark/playback/loop.hpp);
+    // 0 = a plain wrap. Each pass of a loop then lasts length / rate − fade.
+    void setLoopCrossfade(double seconds) { crossfade_ = seconds > 0 ? seconds : 0.0; }
+    double loopCrossfade() const { return crossfade_; }
+
+    // The playhead (source seconds) after `elapsedSeconds` of output at the
+    // segment's rate: start + elapsed · rate. A one-shot segment stops at its
+    // end (returns empty and the transport is stopped); a loop wraps.
     std::optional<double> advance(double elapsedSeconds);
 
-    // The source sample for the n-th output frame (wrapping for loops), or
-    // empty past the end of a one-shot segment.
+    // The source sample for the n-th output frame at rate 1 (wrapping for
+    // loops, without a fade), or empty past the end of a one-shot segment.
     std::optional<std::int64_t> sourceFrame(std::int64_t outputFrame, double sampleRate) const;
 
 private:
     std::optional<PlaySegment> segment_;
+    double rate_ = 1.0;
+    double segmentRate_ = 1.0;  // the rate the running segment started with
+    bool looping_ = false;
+    double crossfade_ = 0.0;
 };
 
 }  // namespace earmark::widgets

@@ -1,0 +1,35 @@
+// Slowed (or hurried) playback that keeps the pitch: time-scale
+// modification by WSOLA — W. Verhelst and M. Roelands, "An overlap-add
+// technique based on waveform similarity (WSOLA) for high quality
+// time-scale modification of speech", Proc. IEEE ICASSP 1993, vol. 2,
+// pp. 554–557.
+//
+// Output frames of `frameSeconds` (Hann window, 50 % overlap, so the
+// windows sum to one) are laid every half frame. Output frame k reads the
+// input near k · hop · rate; within ± `toleranceSeconds` of that place the
+// segment that best continues the previous one (largest cross-correlation
+// with the input that followed the previous segment) is taken, so periods
+// line up and the pitch is kept. The output lasts input / rate (to within
+// one sample).
+//
+// Errors: ParamError naming the field; ParamError("Signal.sampleRate").
+// Cancelled via `progress`. Thread-safety: pure function.
+// Cost: about (2·tolerance + 1) × frame multiply-adds per half frame of
+// output (≈ 20 M per second of output at 22.05 kHz).
+#pragma once
+
+#include "earmark/core/progress.hpp"
+#include "earmark/core/signal.hpp"
+
+namespace earmark {
+
+struct TimeStretchParams {
+    double rate = 1.0;               // playback speed: 0.5 = half speed, twice as long. Valid: [0.25, 2]
+    double frameSeconds = 0.03;      // WSOLA frame (longer than the longest voice period). Valid: [0.005, 0.1]
+    double toleranceSeconds = 0.01;  // search range around the nominal place. Valid: [0, frameSeconds]
+    void validate() const;           // throws ParamError("TimeStretchParams.<field>")
+};
+
+Signal timeStretch(const Signal& input, const TimeStretchParams& params, Progress progress = {});
+
+}  // namespace earmark
