@@ -52,10 +52,19 @@ Signal timeStretch(const Signal& input, const TimeStretchParams& params, Progres
             // The input that followed the previous segment is what this frame should resemble.
             const std::ptrdiff_t natural = previous + hop;
             double best = -1e300;
-            for (std::ptrdiff_t d = -tolerance; d <= tolerance; ++d) {
+            // Nearest offsets first, so ties (silence) keep the nominal place.
+            for (std::ptrdiff_t j = 0; j <= 2 * tolerance; ++j) {
+                const std::ptrdiff_t d = j % 2 == 0 ? j / 2 : -(j + 1) / 2;
                 const std::ptrdiff_t s = nominal + d;
-                double c = 0.0;
-                for (std::ptrdiff_t i = 0; i < frame; ++i) c += static_cast<double>(at(s + i)) * at(natural + i);
+                // Normalised by the candidate's energy: by Cauchy–Schwarz the
+                // natural continuation itself (when in range) scores highest.
+                double c = 0.0, e = 1e-12;
+                for (std::ptrdiff_t i = 0; i < frame; ++i) {
+                    const double v = at(s + i);
+                    c += v * at(natural + i);
+                    e += v * v;
+                }
+                c /= std::sqrt(e);
                 if (c > best) {
                     best = c;
                     chosen = s;

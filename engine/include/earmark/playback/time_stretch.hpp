@@ -8,7 +8,7 @@
 // windows sum to one) are laid every half frame. Output frame k reads the
 // input near k · hop · rate; within ± `toleranceSeconds` of that place the
 // segment that best continues the previous one (largest cross-correlation
-// with the input that followed the previous segment) is taken, so periods
+// with the input that followed the previous segment, over the candidate's RMS) is taken, so periods
 // line up and the pitch is kept. The output lasts input / rate (to within
 // one sample).
 //
