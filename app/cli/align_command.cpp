@@ -5,6 +5,7 @@
 #include "output_file.hpp"
 #include "terminal_progress.hpp"
 
+#include "earmark/acoustic/word_evidence.hpp"
 #include "earmark/align/text_aligner.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
@@ -29,6 +30,9 @@ Arguments makeArguments() {
         {
             {"text", "\"...\"", "", "the words spoken in AUDIO (UTF-8)"},
             {"text-file", "FILE", "", "read the words from a UTF-8 text file instead"},
+            {"method", "auto|model|reference", "auto",
+             "model: HMM forced alignment with the trained US-English acoustic model (pocketsphinx-en-us); "
+             "reference: an espeak-ng reading matched by DTW; auto: model for English voices when installed"},
             {"voice", "NAME", defaults.speech.voice,
              "espeak-ng voice reading the reference (en-gb-x-rp, en+f3, de…); same language as the text"},
             {"rate", "WPM", std::to_string(defaults.speech.rateWpm), "reference speaking rate, words per minute (80-450)"},
@@ -57,10 +61,12 @@ std::string withoutFinalNewline(std::string text) {
     return text;
 }
 
-void printSummary(const std::string& path, const AlignResult& r) {
+void printSummary(const std::string& path, const AlignResult& r, const std::string& method) {
     std::printf("file:      %s\n", path.c_str());
-    std::printf("voice:     %s; reading %.2f s, speech in the take %.2f-%.2f s\n", r.voiceName.c_str(),
-                r.referenceSeconds, r.speechStartS, r.speechEndS);
+    std::printf("method:    %s\n", method.c_str());
+    if (method == "reference")
+        std::printf("voice:     %s; reading %.2f s, speech in the take %.2f-%.2f s\n", r.voiceName.c_str(),
+                    r.referenceSeconds, r.speechStartS, r.speechEndS);
     std::printf("words:     %zu, mean confidence %.2f\n\n", r.tiers.find(kWordsTier)->intervals.size(),
                 r.meanConfidence);
     std::printf("  %8s  %8s  %5s  %s\n", "start s", "end s", "conf", "word");
@@ -97,12 +103,30 @@ int runAlign(const std::vector<std::string>& argv) {
         channels.channel = static_cast<int>(*n) - 1;
     }
 
+    std::string method = args.valueOr("method", "auto");
+    if (method != "auto" && method != "model" && method != "reference")
+        throw UsageError("--method expects auto, model or reference");
+    if (method == "auto") method = modelCoversVoice(params.speech.voice) ? "model" : "reference";
+    if (method == "model" && !modelCoversVoice(params.speech.voice)) {
+        if (!modelCoversVoice("en"))
+            throw InputError("acoustic model", "not installed (Debian package pocketsphinx-en-us); use --method reference");
+        throw UsageError("--method model covers English only; voice '" + params.speech.voice + "' needs --method reference");
+    }
+
     AlignResult result;
     {
         TerminalProgress bar("aligning " + audioPath, args.has("progress"));
         const LoadedAudio audio = loadAudio(audioPath, channels, {}, bar.progress().sub(0.0, 0.1));
         try {
-            result = alignText(audio.signal, text, params, bar.progress().sub(0.1, 1.0));
+            if (method == "model") {
+                WordEvidenceParams evidence;
+                evidence.voice = params.speech.voice;
+                WordEvidenceResult r = gatherWordEvidence(audio.signal, text, evidence, bar.progress().sub(0.1, 1.0));
+                result.tiers = std::move(r.tiers);
+                result.meanConfidence = r.meanConfidence;
+            } else {
+                result = alignText(audio.signal, text, params, bar.progress().sub(0.1, 1.0));
+            }
         } catch (const InputError& e) {
             // Name the file the problem is in.
             if (e.subject() == "audio") throw InputError(audioPath, e.problem());
@@ -124,7 +148,7 @@ int runAlign(const std::vector<std::string>& argv) {
         writeTextOutput(*out, withoutFinalNewline(tierToVtt(*result.tiers.find(kWordsTier))));
         toStdout = toStdout || *out == "-";
     }
-    if (!toStdout) printSummary(audioPath, result);
+    if (!toStdout) printSummary(audioPath, result, method);
     return kExitOk;
 }
 

@@ -20,5 +20,6 @@ int runModel(const std::vector<std::string>& args);
 int runListen(const std::vector<std::string>& args);
 int runLongform(const std::vector<std::string>& args);
 int runArtefacts(const std::vector<std::string>& args);
+int runWords(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

@@ -116,4 +116,25 @@ RenderedSpeech renderSpeech(const std::string& text, const SpeechParams& params)
     return out;
 }
 
+std::string textToIpa(const std::string& text, const std::string& voice) {
+    if (voice.empty()) throw ParamError("SpeechParams.voice", "is empty");
+    std::size_t badByte = 0;
+    if (!align_detail::decodeUtf8(text, badByte))
+        throw InputError("text", "is not valid UTF-8 (byte " + std::to_string(badByte + 1) + ")");
+    std::lock_guard lock(espeakMutex());
+    startEspeak();
+    if (espeak_SetVoiceByName(voice.c_str()) != EE_OK)
+        throw ParamError("SpeechParams.voice", "espeak-ng has no voice '" + voice + "'");
+    std::string out;
+    const void* cursor = text.c_str();
+    // One call per clause; the cursor becomes null at the end of the text.
+    while (cursor != nullptr) {
+        const char* phonemes = espeak_TextToPhonemes(&cursor, espeakCHARS_UTF8, espeakPHONEMES_IPA);
+        if (phonemes == nullptr) break;
+        if (!out.empty() && *phonemes) out += ' ';
+        out += phonemes;
+    }
+    return out;
+}
+
 }  // namespace earmark

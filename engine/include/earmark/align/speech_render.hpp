@@ -55,4 +55,9 @@ struct RenderedSpeech {
 // start (its data files are missing) or fails.
 RenderedSpeech renderSpeech(const std::string& text, const SpeechParams& params = {});
 
+// The phonemes espeak-ng reads for `text` in `voice`, as IPA (UTF-8), words
+// separated by spaces, with stress marks. Numbers and abbreviations come out
+// as the renderer speaks them. Same errors and locking as renderSpeech.
+std::string textToIpa(const std::string& text, const std::string& voice);
+
 }  // namespace earmark

@@ -1,0 +1,98 @@
+#include "earmark/acoustic/senone_scorer.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+namespace earmark {
+
+SenoneScorer::SenoneScorer(const AcousticModel& model, const ModelFeatures& features, int topDensities)
+    : model_(model), features_(features), top_(std::clamp(topDensities, 1, model.densities())) {
+    codebookStamp_.assign(static_cast<std::size_t>(model.codebookCount()), 0);
+    codebookTop_.resize(static_cast<std::size_t>(model.codebookCount() * model.streams() * top_));
+    senoneStamp_.assign(static_cast<std::size_t>(model.senoneCount()), 0);
+    senoneScore_.assign(static_cast<std::size_t>(model.senoneCount()), 0.0f);
+    scratch_.resize(static_cast<std::size_t>(model.densities()));
+}
+
+void SenoneScorer::setFrame(std::size_t frame) { frame_ = frame; }
+
+void SenoneScorer::evaluateCodebook(int cb) {
+    const float* x = features_.frame(frame_);
+    const auto& sizes = model_.frontEnd().streamSizes;
+    int offset = 0;
+    for (int s = 0; s < model_.streams(); ++s) {
+        const int dim = sizes[static_cast<std::size_t>(s)];
+        const float* xs = x + offset;
+        for (int d = 0; d < model_.densities(); ++d) {
+            const float* mu = model_.mean(cb, s, d);
+            const float* prec = model_.precision(cb, s, d);
+            float acc = 0;
+            for (int k = 0; k < dim; ++k) {
+                const float diff = xs[k] - mu[k];
+                acc += diff * diff * prec[k];
+            }
+            scratch_[static_cast<std::size_t>(d)] = model_.logConst(cb, s, d) - 0.5f * acc;
+        }
+        Top* top = codebookTop_.data() + (static_cast<std::size_t>(cb) * static_cast<std::size_t>(model_.streams()) +
+                                          static_cast<std::size_t>(s)) *
+                                             static_cast<std::size_t>(top_);
+        for (int k = 0; k < top_; ++k) top[k] = {-1, -std::numeric_limits<float>::infinity()};
+        for (int d = 0; d < model_.densities(); ++d) {
+            const float v = scratch_[static_cast<std::size_t>(d)];
+            if (v <= top[top_ - 1].logLikelihood) continue;
+            int k = top_ - 1;
+            while (k > 0 && top[k - 1].logLikelihood < v) {
+                top[k] = top[k - 1];
+                --k;
+            }
+            top[k] = {d, v};
+        }
+        offset += dim;
+    }
+    codebookStamp_[static_cast<std::size_t>(cb)] = static_cast<std::uint32_t>(frame_ + 1);
+}
+
+float SenoneScorer::score(int senone) {
+    const auto si = static_cast<std::size_t>(senone);
+    const auto stamp = static_cast<std::uint32_t>(frame_ + 1);
+    if (senoneStamp_[si] == stamp) return senoneScore_[si];
+    const int cb = model_.codebookOf(senone);
+    if (codebookStamp_[static_cast<std::size_t>(cb)] != stamp) evaluateCodebook(cb);
+    float total = 0;
+    for (int s = 0; s < model_.streams(); ++s) {
+        const Top* top = codebookTop_.data() + (static_cast<std::size_t>(cb) * static_cast<std::size_t>(model_.streams()) +
+                                                static_cast<std::size_t>(s)) *
+                                                   static_cast<std::size_t>(top_);
+        float best = -std::numeric_limits<float>::infinity();
+        float terms[64];
+        const int n = std::min(top_, 64);
+        for (int k = 0; k < n; ++k) {
+            terms[k] = top[k].density < 0 ? -std::numeric_limits<float>::infinity()
+                                          : top[k].logLikelihood + model_.logWeight(senone, s, top[k].density);
+            best = std::max(best, terms[k]);
+        }
+        float sum = 0;
+        for (int k = 0; k < n; ++k) sum += std::exp(terms[k] - best);
+        total += best + std::log(sum);
+    }
+    senoneStamp_[si] = stamp;
+    senoneScore_[si] = total;
+    return total;
+}
+
+std::vector<float> contextFreeScores(const AcousticModel& model, const ModelFeatures& features) {
+    const std::size_t perFrame = static_cast<std::size_t>(model.basePhoneCount()) * AcousticModel::kStates;
+    std::vector<float> out(features.frames * perFrame);
+    SenoneScorer scorer(model, features);
+    for (std::size_t t = 0; t < features.frames; ++t) {
+        scorer.setFrame(t);
+        for (int p = 0; p < model.basePhoneCount(); ++p)
+            for (int j = 0; j < AcousticModel::kStates; ++j)
+                out[t * perFrame + static_cast<std::size_t>(p * AcousticModel::kStates + j)] =
+                    scorer.score(model.states(p)[static_cast<std::size_t>(j)]);
+    }
+    return out;
+}
+
+}  // namespace earmark

@@ -1,0 +1,287 @@
+#include "earmark/acoustic/word_evidence.hpp"
+
+#include "earmark/acoustic/model_features.hpp"
+#include "earmark/acoustic/pronunciation_score.hpp"
+#include "earmark/acoustic/senone_scorer.hpp"
+#include "earmark/core/error.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+#include <memory>
+#include <mutex>
+
+namespace earmark {
+namespace {
+
+std::shared_ptr<const AcousticModel> sharedModel(const std::filesystem::path& folder) {
+    static std::mutex mutex;
+    static std::map<std::string, std::shared_ptr<const AcousticModel>> cache;
+    std::lock_guard lock(mutex);
+    auto& slot = cache[folder.string()];
+    if (!slot) slot = std::make_shared<const AcousticModel>(AcousticModel::load(folder));
+    return slot;
+}
+
+double roundMs(double s) { return std::round(s * 1000.0) / 1000.0; }
+
+std::string quoteWords(const std::vector<std::string>& words) {
+    std::string out;
+    for (std::size_t i = 0; i < words.size(); ++i) out += (i ? " " : "") + words[i];
+    return "'" + out + "'";
+}
+
+std::string secondsText(double s) {
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.2f s", s);
+    return buf;
+}
+
+}  // namespace
+
+void WordEvidenceParams::validate() const {
+    search.validate();
+    if (!(insertionPenalty >= 0) || !std::isfinite(insertionPenalty))
+        throw ParamError("WordEvidenceParams.insertionPenalty", "must be a finite number >= 0");
+    if (!(minExtraSeconds >= 0) || !std::isfinite(minExtraSeconds))
+        throw ParamError("WordEvidenceParams.minExtraSeconds", "must be a finite number >= 0");
+    if (!(confidenceScale > 0) || !std::isfinite(confidenceScale))
+        throw ParamError("WordEvidenceParams.confidenceScale", "must be > 0");
+    if (voice.empty()) throw ParamError("WordEvidenceParams.voice", "is empty");
+}
+
+const char* coverageKindName(CoverageFinding::Kind kind) {
+    switch (kind) {
+        case CoverageFinding::Kind::Skipped: return "skipped";
+        case CoverageFinding::Kind::Repeated: return "repeated";
+        case CoverageFinding::Kind::Extra: return "extra";
+        case CoverageFinding::Kind::EarlyEnd: return "early-end";
+        case CoverageFinding::Kind::Substituted: return "substituted";
+    }
+    return "?";
+}
+
+bool modelCoversVoice(const std::string& voice) {
+    if (!AcousticModel::installedEnglishModel() || !AcousticModel::installedEnglishDictionary()) return false;
+    std::string v = voice.substr(0, voice.find('+'));
+    for (char& c : v) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+    return v == "en" || v.rfind("en-", 0) == 0;
+}
+
+WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& text, const WordEvidenceParams& params,
+                                      Progress progress) {
+    params.validate();
+    const auto folder = params.modelFolder ? params.modelFolder : AcousticModel::installedEnglishModel();
+    const auto dictPath = params.dictionary ? params.dictionary : AcousticModel::installedEnglishDictionary();
+    if (!folder) throw InputError("acoustic model", "not installed (Debian package pocketsphinx-en-us)");
+    if (!dictPath) throw InputError("pronouncing dictionary", "not installed (Debian package pocketsphinx-en-us)");
+    const auto model = sharedModel(*folder);
+    const auto dictionary = sharedDictionary(*dictPath, *model);
+    progress.report(0.02);
+
+    const std::vector<ScriptWord> script = scriptWords(text, *dictionary, *model, params.voice);
+    const ModelFeatures features = computeModelFeatures(take, model->frontEnd(), progress.sub(0.02, 0.1));
+    const std::vector<float> contextFree = contextFreeScores(*model, features);
+    progress.report(0.3);
+    const ForcedAlignment path = forceAlign(*model, features, contextFree, script, params.search, progress.sub(0.3, 0.85));
+    if (!path.reachedEnd) throw InputError("audio", "could not be aligned to the text (no path through the model)");
+
+    const double hop = features.hopSeconds;
+    const double takeEnd = take.durationSeconds();
+    // The recogniser's convention: a stretch starting at frame f starts at f · hop.
+    const auto timeOf = [&](std::size_t frame) { return roundMs(std::min(takeEnd, static_cast<double>(frame) * hop)); };
+
+    WordEvidenceResult out;
+    out.tiers.durationS = takeEnd;
+    out.logLikelihoodPerFrame = path.logLikelihood / static_cast<double>(std::max<std::size_t>(1, features.frames));
+    out.words.resize(script.size());
+    for (std::size_t k = 0; k < script.size(); ++k) {
+        out.words[k].label = script[k].label;
+        out.words[k].index = k;
+        out.words[k].guessed = script[k].guessed;
+        if (script[k].guessed) out.guessedWords.push_back(script[k].label);
+    }
+
+    // Walk the path: visits of words (a run of its phones from the first).
+    std::size_t i = 0;
+    const auto& segs = path.path;
+    int lastSpokenWord = -1;
+    std::size_t lastSpeechEnd = 0;
+    bool endedInsideWord = false;
+    while (i < segs.size()) {
+        const PathSegment& s = segs[i];
+        if (s.kind == PathSegment::Kind::Pause) {
+            ++i;
+            continue;
+        }
+        if (s.kind == PathSegment::Kind::Extra) {
+            const double len = static_cast<double>(s.endFrame - s.startFrame) * hop;
+            if (len >= params.minExtraSeconds) {
+                CoverageFinding f;
+                f.kind = CoverageFinding::Kind::Extra;
+                f.startS = timeOf(s.startFrame);
+                f.endS = timeOf(s.endFrame);
+                if (lastSpokenWord >= 0) f.words.push_back(script[static_cast<std::size_t>(lastSpokenWord)].label);
+                const std::size_t nextWord = lastSpokenWord + 1 < static_cast<int>(script.size()) ? static_cast<std::size_t>(lastSpokenWord + 1) : script.size();
+                if (nextWord < script.size()) f.words.push_back(script[nextWord].label);
+                const PhoneScore heard = scorePhone(*model, contextFree, model->silencePhone(), s.startFrame, s.endFrame,
+                                                    params.insertionPenalty);
+                std::string phones;
+                for (int p : heard.heard)
+                    if (p != model->silencePhone()) phones += (phones.empty() ? "" : " ") + model->basePhoneName(p);
+                f.detail = "speech that is not in the script at " + secondsText(f.startS) + "–" + secondsText(f.endS) +
+                           (f.words.empty() ? "" : ", near " + quoteWords(f.words)) +
+                           (phones.empty() ? "" : " (sounds like " + phones + ")");
+                out.coverage.push_back(std::move(f));
+            }
+            lastSpeechEnd = s.endFrame;
+            ++i;
+            continue;
+        }
+        // A visit of word s.word.
+        const int k = s.word;
+        const std::size_t pronLength = script[static_cast<std::size_t>(k)].pronunciations[static_cast<std::size_t>(s.pronunciation)].size();
+        std::size_t j = i;
+        while (j < segs.size() && segs[j].kind == PathSegment::Kind::Phone && segs[j].word == k &&
+               segs[j].phoneInWord == static_cast<int>(j - i))
+            ++j;
+        const bool complete = j - i == pronLength;
+        WordEvidence& w = out.words[static_cast<std::size_t>(k)];
+        ++w.occurrences;
+        if (w.occurrences == 2) {
+            CoverageFinding f;
+            f.kind = CoverageFinding::Kind::Repeated;
+            f.words = {w.label};
+            f.startS = timeOf(segs[i].startFrame);
+            f.endS = timeOf(segs[j - 1].endFrame);
+            f.detail = "'" + w.label + "' said again at " + secondsText(f.startS);
+            out.coverage.push_back(std::move(f));
+        }
+        if (w.occurrences == 1) {
+            w.spoken = true;
+            w.complete = complete;
+            w.startS = timeOf(segs[i].startFrame);
+            w.endS = timeOf(segs[j - 1].endFrame);
+            double weighted = 0;
+            std::size_t frames = 0;
+            for (std::size_t m = i; m < j; ++m) {
+                const PathSegment& ps = segs[m];
+                const PhoneScore sc = scorePhone(*model, contextFree, ps.basePhone, ps.startFrame, ps.endFrame,
+                                                 params.insertionPenalty);
+                PhoneEvidence pe;
+                pe.expected = model->basePhoneName(ps.basePhone);
+                for (int p : sc.heard) pe.heard.push_back(model->basePhoneName(p));
+                pe.startS = timeOf(ps.startFrame);
+                pe.endS = timeOf(ps.endFrame);
+                pe.score = sc.score;
+                weighted += sc.score * static_cast<double>(ps.endFrame - ps.startFrame);
+                frames += ps.endFrame - ps.startFrame;
+                w.phones.push_back(pe);
+            }
+            w.score = frames ? weighted / static_cast<double>(frames) : 0.0;
+            w.confidence = std::clamp(1.0 + w.score / params.confidenceScale, 0.0, 1.0);
+        }
+        lastSpokenWord = std::max(lastSpokenWord, k);
+        lastSpeechEnd = segs[j - 1].endFrame;
+        endedInsideWord = !complete;
+        i = j;
+    }
+    // Words never said: trailing ones are an early end, others are skipped.
+    std::size_t trailing = script.size();
+    while (trailing > 0 && !out.words[trailing - 1].spoken) --trailing;
+    for (std::size_t k = 0; k < trailing; ++k) {
+        if (out.words[k].spoken) continue;
+        CoverageFinding f;
+        f.kind = CoverageFinding::Kind::Skipped;
+        f.words = {out.words[k].label};
+        // Where it should have been: after the previous spoken word.
+        double at = 0;
+        for (std::size_t m = k; m-- > 0;)
+            if (out.words[m].spoken) {
+                at = out.words[m].endS;
+                break;
+            }
+        f.startS = f.endS = at;
+        f.detail = "'" + out.words[k].label + "' not said (expected at " + secondsText(at) + ")";
+        out.coverage.push_back(std::move(f));
+    }
+    if (trailing < script.size() || endedInsideWord) {
+        CoverageFinding f;
+        f.kind = CoverageFinding::Kind::EarlyEnd;
+        std::vector<std::string> unsaid;
+        for (std::size_t k = trailing; k < script.size(); ++k) unsaid.push_back(out.words[k].label);
+        f.startS = timeOf(lastSpeechEnd);
+        f.endS = roundMs(takeEnd);
+        std::string cut;
+        if (endedInsideWord && lastSpokenWord >= 0) {
+            cut = out.words[static_cast<std::size_t>(lastSpokenWord)].label;
+            f.words.push_back(cut);
+        }
+        f.words.insert(f.words.end(), unsaid.begin(), unsaid.end());
+        f.detail = "speech ends early at " + secondsText(f.startS) +
+                   (cut.empty() ? "" : ", inside '" + cut + "'") +
+                   (unsaid.empty() ? "" : "; never said: " + quoteWords(unsaid));
+        out.coverage.push_back(std::move(f));
+    }
+    // A word not said with unscripted speech where it belongs was said as
+    // something else: one substitution, named by the word, not a skip (or
+    // an early end) plus an extra.
+    for (std::size_t a = 0; a < out.coverage.size(); ++a) {
+        CoverageFinding& extra = out.coverage[a];
+        if (extra.kind != CoverageFinding::Kind::Extra) continue;
+        for (std::size_t b = 0; b < out.coverage.size(); ++b) {
+            CoverageFinding& gap = out.coverage[b];
+            if (b == a || (gap.kind != CoverageFinding::Kind::Skipped && gap.kind != CoverageFinding::Kind::EarlyEnd))
+                continue;
+            if (gap.kind == CoverageFinding::Kind::EarlyEnd && gap.words.size() != 1) continue;
+            if (std::fabs(gap.startS - extra.startS) > 0.05 && std::fabs(gap.startS - extra.endS) > 0.05) continue;
+            const std::string word = gap.words.front();
+            const std::string heard = extra.detail.find("(sounds like ") != std::string::npos
+                                          ? extra.detail.substr(extra.detail.find("(sounds like ") + 13)
+                                          : std::string();
+            extra.kind = CoverageFinding::Kind::Substituted;
+            extra.words = {word};
+            extra.detail = "'" + word + "' said as something else at " + secondsText(extra.startS) +
+                           (heard.empty() ? "" : " (heard " + heard.substr(0, heard.size() - 1) + ")");
+            for (WordEvidence& w : out.words)
+                if (w.label == word && !w.spoken) {
+                    w.substituted = true;
+                    w.startS = extra.startS;
+                    w.endS = extra.endS;
+                    break;
+                }
+            out.coverage.erase(out.coverage.begin() + static_cast<std::ptrdiff_t>(b));
+            if (b < a) --a;
+            break;
+        }
+    }
+    std::stable_sort(out.coverage.begin(), out.coverage.end(),
+                     [](const CoverageFinding& a, const CoverageFinding& b) { return a.startS < b.startS; });
+
+    // Tiers from first occurrences, in time order.
+    out.tiers.getOrAdd(kWordsTier);
+    out.tiers.getOrAdd(kPhonesTier);
+    Tier& wordTier = *out.tiers.find(kWordsTier);
+    Tier& phoneTier = *out.tiers.find(kPhonesTier);
+    double confidenceSum = 0;
+    std::size_t spoken = 0;
+    std::vector<const WordEvidence*> order;
+    for (const WordEvidence& w : out.words)
+        if (w.spoken) order.push_back(&w);
+    std::stable_sort(order.begin(), order.end(), [](auto* a, auto* b) { return a->startS < b->startS; });
+    double lastEnd = 0;
+    for (const WordEvidence* w : order) {
+        if (w->startS < lastEnd || w->endS <= w->startS) continue;  // a repeat overlapping an earlier word
+        wordTier.intervals.push_back({w->startS, w->endS, w->label, w->confidence});
+        for (const PhoneEvidence& p : w->phones)
+            if (p.endS > p.startS) phoneTier.intervals.push_back({p.startS, p.endS, p.expected, std::nullopt});
+        lastEnd = w->endS;
+        confidenceSum += w->confidence;
+        ++spoken;
+    }
+    out.meanConfidence = spoken ? confidenceSum / static_cast<double>(spoken) : 0.0;
+    progress.report(1.0);
+    return out;
+}
+
+}  // namespace earmark

@@ -1,0 +1,203 @@
+// Forced alignment with the trained acoustic model on voices that are not
+// espeak-ng, pronunciation scores and script coverage.
+//
+// Truth: Debian's festival voices (cmu_us_slt_arctic_hts, kal_diphone,
+// ked_diphone) report where each word starts in their own utterance
+// structure; tests/data/evidence/render_festival_takes.py renders texts of our
+// own with them (16 and 22.05 kHz, some padded with silence, some with light
+// noise) and planted faults. Real recordings with transcripts: the
+// pocketsphinx-testdata package.
+#include "earmark/acoustic/word_evidence.hpp"
+#include "earmark/core/error.hpp"
+#include "earmark/io/audio_file.hpp"
+
+#include <gtest/gtest.h>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdlib>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <sstream>
+
+namespace earmark {
+namespace {
+
+namespace fs = std::filesystem;
+
+// Renders the takes once per build tree (release and debug share them).
+const fs::path& festivalTakes() {
+    static const fs::path dir = [] {
+        const fs::path d = fs::path(EARMARK_SOURCE_DIR) / "build" / "festival-takes";
+        fs::create_directories(d.parent_path());
+        const std::string script = std::string(EARMARK_TEST_DATA_DIR) + "/evidence/render_festival_takes.py";
+        const std::string cmd = "flock '" + d.string() + ".lock' sh -c \"[ -f '" + d.string() + "/done' ] || (python3 '" +
+                                script + "' '" + d.string() + "' && touch '" + d.string() + "/done')\"";
+        if (std::system(cmd.c_str()) != 0) throw std::runtime_error("rendering the festival takes failed: " + cmd);
+        return d;
+    }();
+    return dir;
+}
+
+std::string firstLine(const fs::path& p) {
+    std::ifstream in(p);
+    std::string s;
+    std::getline(in, s);
+    return s;
+}
+
+std::vector<double> truthStarts(const fs::path& p) {
+    std::ifstream in(p);
+    std::vector<double> out;
+    std::string line;
+    while (std::getline(in, line)) {
+        std::istringstream f(line);
+        double s = 0, e = 0;
+        if (f >> s >> e) out.push_back(s);
+    }
+    return out;
+}
+
+std::vector<fs::path> takes(const std::string& prefix, bool faults) {
+    std::vector<fs::path> out;
+    for (const auto& e : fs::directory_iterator(festivalTakes())) {
+        const std::string name = e.path().filename().string();
+        if (e.path().extension() != ".wav" || name.rfind(prefix, 0) != 0) continue;
+        if ((name.find("-fault-") != std::string::npos) == faults) out.push_back(e.path());
+    }
+    std::sort(out.begin(), out.end());
+    return out;
+}
+
+WordEvidenceResult evidenceOf(const fs::path& wav) {
+    const LoadedAudio audio = loadAudio(wav.string());
+    return gatherWordEvidence(audio.signal, firstLine(fs::path(wav).replace_extension(".txt")));
+}
+
+struct StartErrors {
+    std::vector<double> absolute;
+    double within(double limit) const {
+        return static_cast<double>(std::count_if(absolute.begin(), absolute.end(), [&](double e) { return e <= limit; })) /
+               static_cast<double>(absolute.size());
+    }
+    double median() const {
+        std::vector<double> v = absolute;
+        std::nth_element(v.begin(), v.begin() + static_cast<std::ptrdiff_t>(v.size() / 2), v.end());
+        return v[v.size() / 2];
+    }
+};
+
+// The issue's bar: >= 95 % of word starts within 50 ms of the voice's own
+// times, median under 15 ms, no take failing, no coverage finding on a
+// clean take (at most one over all of them is allowed; we see none).
+void checkVoice(const std::string& voice) {
+    StartErrors errors;
+    int falseFindings = 0;
+    const auto files = takes(voice + "-", false);
+    ASSERT_EQ(files.size(), 12u);
+    for (const fs::path& wav : files) {
+        const WordEvidenceResult r = evidenceOf(wav);
+        const std::vector<double> truth = truthStarts(fs::path(wav).replace_extension(".words"));
+        ASSERT_EQ(truth.size(), r.words.size()) << wav;
+        for (std::size_t i = 0; i < truth.size(); ++i)
+            errors.absolute.push_back(r.words[i].spoken ? std::fabs(r.words[i].startS - truth[i]) : 10.0);
+        falseFindings += static_cast<int>(r.coverage.size());
+        for (const auto& c : r.coverage) ADD_FAILURE() << wav << ": " << c.detail;
+    }
+    std::printf("[ figures  ] %s: %zu word starts, %.1f %% within 50 ms, median %.1f ms\n", voice.c_str(),
+                errors.absolute.size(), 100 * errors.within(0.050), 1000 * errors.median());
+    EXPECT_GE(errors.within(0.050), 0.95);
+    EXPECT_LT(errors.median(), 0.015);
+    EXPECT_LE(falseFindings, 1);
+}
+
+TEST(ModelAlignment, StatisticalParametricVoice) { checkVoice("slt"); }
+TEST(ModelAlignment, DiphoneVoiceKal) { checkVoice("kal"); }
+TEST(ModelAlignment, DiphoneVoiceKed) { checkVoice("ked"); }
+
+// Planted faults: each found and named by its word.
+TEST(ScriptCoverage, PlantedFaultsAreNamedByTheirWord) {
+    const std::map<std::string, std::pair<std::string, std::vector<std::string>>> expected = {
+        {"swap", {"tickets", {"substituted", "extra"}}}, {"vowel", {"bread", {"substituted"}}},
+        {"skip", {"all", {"skipped"}}},                  {"repeat", {"open", {"repeated", "extra"}}},
+        {"cut", {"car", {"early-end"}}},
+    };
+    int found = 0, total = 0;
+    for (const std::string voice : {"slt", "kal", "ked"})
+        for (const auto& [id, want] : expected) {
+            ++total;
+            const WordEvidenceResult r = evidenceOf(festivalTakes() / (voice + "-fault-" + id + ".wav"));
+            bool named = false;
+            for (const CoverageFinding& c : r.coverage) {
+                const bool kindOk = std::find(want.second.begin(), want.second.end(), coverageKindName(c.kind)) != want.second.end();
+                const bool wordOk = std::find(c.words.begin(), c.words.end(), want.first) != c.words.end();
+                named = named || (kindOk && wordOk);
+            }
+            if (named) ++found;
+            else ADD_FAILURE() << voice << " " << id << ": '" << want.first << "' not named";
+        }
+    std::printf("[ figures  ] planted faults named by their word: %d of %d\n", found, total);
+}
+
+// Real recordings (pocketsphinx-testdata): alignment completes, words come
+// in order, inside the take, and the words cover most of the speech.
+TEST(ModelAlignment, RealRecordingsSmoke) {
+    const fs::path dir = "/usr/share/pocketsphinx/test/data/librivox";
+    std::ifstream list(dir / "transcription");
+    std::string line;
+    int checked = 0;
+    while (std::getline(list, line)) {
+        const auto open = line.rfind('(');
+        const auto close = line.rfind(')');
+        ASSERT_NE(open, std::string::npos);
+        const std::string id = line.substr(open + 1, close - open - 1);
+        std::string text = line.substr(0, open);
+        for (const char* tag : {"<s>", "</s>"})
+            if (auto p = text.find(tag); p != std::string::npos) text.erase(p, std::string(tag).size());
+        const LoadedAudio audio = loadAudio((dir / (id + ".wav")).string());
+        const WordEvidenceResult r = gatherWordEvidence(audio.signal, text);
+        const Tier& words = *r.tiers.find(kWordsTier);
+        EXPECT_EQ(words.intervals.size(), r.words.size()) << id;
+        double last = 0;
+        for (const Interval& w : words.intervals) {
+            EXPECT_GE(w.startS, last) << id;
+            EXPECT_LE(w.endS, audio.signal.durationSeconds() + 1e-9) << id;
+            last = w.endS;
+        }
+        EXPECT_TRUE(r.coverage.empty()) << id << ": " << (r.coverage.empty() ? "" : r.coverage.front().detail);
+        ++checked;
+    }
+    EXPECT_EQ(checked, 5);
+}
+
+TEST(WordEvidence, WordsOutsideTheDictionaryAreGuessedAndSaidSo) {
+    const WordEvidenceResult r = evidenceOf(festivalTakes() / "slt-07.wav");  // "… Brackenwald harbour …"
+    ASSERT_EQ(r.guessedWords.size(), 1u);
+    EXPECT_EQ(r.guessedWords.front(), "Brackenwald");
+}
+
+TEST(WordEvidence, BadTextGivesAnErrorOrALowConfidenceResultNeverACrash) {
+    const LoadedAudio audio = loadAudio((festivalTakes() / "kal-01.wav").string());
+    EXPECT_THROW(gatherWordEvidence(audio.signal, ""), InputError);
+    EXPECT_THROW(gatherWordEvidence(audio.signal, " ... !! -- "), InputError);
+    // No dictionary word at all: every phone guessed, still a result.
+    const WordEvidenceResult nonsense = gatherWordEvidence(audio.signal, "Zorblat qwimfen drussock");
+    EXPECT_EQ(nonsense.guessedWords.size(), 3u);
+    // Digits and abbreviations are read out by the guesser.
+    EXPECT_NO_THROW(gatherWordEvidence(audio.signal, "Dr. Vell paid 42 crowns at 9:30"));
+    // Text far longer than the audio: the missing words are an early end.
+    std::string longText;
+    for (int i = 0; i < 40; ++i) longText += "Passengers with bicycles please board through the lower deck. ";
+    const WordEvidenceResult tooLong = gatherWordEvidence(audio.signal, longText);
+    ASSERT_FALSE(tooLong.coverage.empty());
+    EXPECT_EQ(coverageKindName(tooLong.coverage.back().kind), std::string("early-end"));
+    // Audio shorter than one frame.
+    Signal tiny;
+    tiny.sampleRate = 16000;
+    tiny.samples.assign(100, 0.0f);
+    EXPECT_THROW(gatherWordEvidence(tiny, "hello"), InputError);
+}
+
+}  // namespace
+}  // namespace earmark
