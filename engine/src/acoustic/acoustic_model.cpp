@@ -359,6 +359,19 @@ struct AcousticModelReader {
                     }
                     m.logConsts_[(cb * means.streams + s) * means.densities + d] = static_cast<float>(-0.5 * logDet);
                 }
+        // Transposed copies for scoring (dimension-major within a stream).
+        m.meansT_.resize(m.means_.size());
+        m.precisionsT_.resize(m.precisions_.size());
+        for (std::size_t cb = 0; cb < means.codebooks; ++cb)
+            for (std::size_t s = 0; s < means.streams; ++s) {
+                const std::size_t base = m.gaussianOffset(static_cast<int>(cb), static_cast<int>(s), 0);
+                const std::size_t dim = means.sizes[s];
+                for (std::size_t d = 0; d < means.densities; ++d)
+                    for (std::size_t k = 0; k < dim; ++k) {
+                        m.meansT_[base + k * means.densities + d] = m.means_[base + d * dim + k];
+                        m.precisionsT_[base + k * means.densities + d] = m.precisions_[base + d * dim + k];
+                    }
+            }
         // Which codebook each tied state draws from.
         const std::size_t nSen = m.senoneCodebook_.size();
         if (means.codebooks == nSen) {

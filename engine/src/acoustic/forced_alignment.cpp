@@ -132,7 +132,7 @@ void ForcedAlignmentParams::validate() const {
 }
 
 ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& features,
-                           const std::vector<float>& contextFree, const std::vector<ScriptWord>& words,
+                           const std::vector<ScriptWord>& words, std::vector<float>& contextFree,
                            const ForcedAlignmentParams& params, Progress progress) {
     params.validate();
     ForcedAlignment result;
@@ -144,6 +144,7 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
     const Graph g = buildGraph(model, words, params);
     const std::size_t nUnits = g.units.size();
     const std::size_t ciPerFrame = static_cast<std::size_t>(model.basePhoneCount()) * S;
+    contextFree.assign(T * ciPerFrame, 0.0f);
 
     std::vector<float> score(nUnits * S, kNone);
     std::vector<int> hist(nUnits * S, -1);
@@ -201,7 +202,10 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
         nextList.clear();
         std::fill(nullScore.begin(), nullScore.end(), kNone);
         float best = kNone;
-        const float* ci = contextFree.data() + t * ciPerFrame;
+        float* ci = contextFree.data() + t * ciPerFrame;
+        for (int p = 0; p < model.basePhoneCount(); ++p)
+            for (int j = 0; j < S; ++j)
+                ci[static_cast<std::size_t>(p * S + j)] = scorer.score(model.states(p)[static_cast<std::size_t>(j)]);
         float garbage = kNone;
         for (std::size_t k = 0; k < ciPerFrame; ++k) garbage = std::max(garbage, ci[k]);
         garbage -= static_cast<float>(params.garbageFramePenalty);

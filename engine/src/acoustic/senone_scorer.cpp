@@ -24,16 +24,21 @@ void SenoneScorer::evaluateCodebook(int cb) {
     for (int s = 0; s < model_.streams(); ++s) {
         const int dim = sizes[static_cast<std::size_t>(s)];
         const float* xs = x + offset;
-        for (int d = 0; d < model_.densities(); ++d) {
-            const float* mu = model_.mean(cb, s, d);
-            const float* prec = model_.precision(cb, s, d);
-            float acc = 0;
-            for (int k = 0; k < dim; ++k) {
-                const float diff = xs[k] - mu[k];
-                acc += diff * diff * prec[k];
+        // All densities at once, dimension by dimension (vectorises).
+        const AcousticModel::GaussianBlock g = model_.block(cb, s);
+        const int nd = model_.densities();
+        float* acc = scratch_.data();
+        for (int d = 0; d < nd; ++d) acc[d] = 0.0f;
+        for (int k = 0; k < dim; ++k) {
+            const float xk = xs[k];
+            const float* mu = g.meanT + static_cast<std::size_t>(k) * static_cast<std::size_t>(nd);
+            const float* prec = g.precisionT + static_cast<std::size_t>(k) * static_cast<std::size_t>(nd);
+            for (int d = 0; d < nd; ++d) {
+                const float diff = xk - mu[d];
+                acc[d] += diff * diff * prec[d];
             }
-            scratch_[static_cast<std::size_t>(d)] = model_.logConst(cb, s, d) - 0.5f * acc;
         }
+        for (int d = 0; d < nd; ++d) acc[d] = g.logConst[d] - 0.5f * acc[d];
         Top* top = codebookTop_.data() + (static_cast<std::size_t>(cb) * static_cast<std::size_t>(model_.streams()) +
                                           static_cast<std::size_t>(s)) *
                                              static_cast<std::size_t>(top_);

@@ -81,9 +81,8 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
 
     const std::vector<ScriptWord> script = scriptWords(text, *dictionary, *model, params.voice);
     const ModelFeatures features = computeModelFeatures(take, model->frontEnd(), progress.sub(0.02, 0.1));
-    const std::vector<float> contextFree = contextFreeScores(*model, features);
-    progress.report(0.3);
-    const ForcedAlignment path = forceAlign(*model, features, contextFree, script, params.search, progress.sub(0.3, 0.85));
+    std::vector<float> contextFree;
+    const ForcedAlignment path = forceAlign(*model, features, script, contextFree, params.search, progress.sub(0.1, 0.85));
     if (!path.reachedEnd) throw InputError("audio", "could not be aligned to the text (no path through the model)");
 
     const double hop = features.hopSeconds;

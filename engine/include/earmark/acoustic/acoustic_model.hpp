@@ -99,6 +99,20 @@ public:
     const float* mean(int codebook, int stream, int density) const;
     const float* precision(int codebook, int stream, int density) const;
     float logConst(int codebook, int stream, int density) const;
+    // The same parameters laid out for scoring all densities of a codebook's
+    // stream at once: element [k · densities + d] is dimension k of density d.
+    struct GaussianBlock {
+        const float* meanT;
+        const float* precisionT;
+        const float* logConst;  // per density
+    };
+    GaussianBlock block(int codebook, int stream) const {
+        const std::size_t off = gaussianOffset(codebook, stream, 0);
+        const std::size_t c = (static_cast<std::size_t>(codebook) * static_cast<std::size_t>(streams()) +
+                               static_cast<std::size_t>(stream)) *
+                              static_cast<std::size_t>(densities_);
+        return {meansT_.data() + off, precisionsT_.data() + off, logConsts_.data() + c};
+    }
     // log mixture weight of `density` in `stream` of `senone`.
     float logWeight(int senone, int stream, int density) const {
         return logWeights_[(static_cast<std::size_t>(senone) * streams() + static_cast<std::size_t>(stream)) *
@@ -124,6 +138,7 @@ private:
     std::vector<float> means_;       // [codebook][stream][density][dim of stream]
     std::vector<float> precisions_;  // same layout
     std::vector<float> logConsts_;   // [codebook][stream][density]
+    std::vector<float> meansT_, precisionsT_;  // [codebook][stream][dim of stream][density]
     std::vector<float> logWeights_;  // [senone][stream][density]
 
     std::size_t gaussianOffset(int codebook, int stream, int density) const;

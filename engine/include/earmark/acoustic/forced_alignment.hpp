@@ -60,10 +60,12 @@ struct ForcedAlignment {
     bool reachedEnd = true;         // false when no path survived (the result is then empty)
 };
 
-// Aligns `words` (at least one) to `features`. `contextFree` is
-// contextFreeScores(model, features) (it feeds the garbage unit).
+// Aligns `words` (at least one) to `features`. Fills `contextFree` with
+// contextFreeScores(model, features) on the way (the garbage unit needs
+// them every frame, and pronunciation scores reuse them), so each frame's
+// Gaussians are evaluated once.
 ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& features,
-                           const std::vector<float>& contextFree, const std::vector<ScriptWord>& words,
+                           const std::vector<ScriptWord>& words, std::vector<float>& contextFree,
                            const ForcedAlignmentParams& params = {}, Progress progress = {});
 
 }  // namespace earmark
