@@ -46,7 +46,8 @@ void printUsage(std::FILE* to) {
     std::fprintf(to, "usage: earmark-cli COMMAND [OPTIONS]\n\ncommands:\n");
     for (const auto& [name, cmd] : subcommands()) std::fprintf(to, "  %-10s %s\n", name.c_str(), cmd.summary);
     std::fprintf(to, "\n'earmark-cli COMMAND --help' lists the options of a command.\n"
-                     "exit codes: 0 ok, 2 bad usage, 3 bad input, 130 interrupted.\n");
+                     "exit codes: 0 ok, 1 internal error, 2 bad usage, 3 bad input, 4 cannot write,\n"
+                     "130 interrupted.\n");
 }
 
 }  // namespace
@@ -80,6 +81,9 @@ int main(int argc, char** argv) {
     } catch (const earmark::Cancelled&) {
         std::fprintf(stderr, "earmark-cli %s: interrupted\n", name.c_str());
         return earmark::cli::kExitCancelled;
+    } catch (const earmark::WriteError& e) {
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        return earmark::cli::kExitCannotWrite;
     } catch (const earmark::Error& e) {
         std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
         return earmark::cli::kExitFailure;

@@ -25,26 +25,26 @@ void writeTextOutput(const std::string& path, const std::string& text) {
         std::ofstream out(path, std::ios::binary);
         out << text << '\n';
         out.flush();
-        if (!out) throw Error(path, std::string("cannot be written: ") + std::strerror(errno));
+        if (!out) throw WriteError(path, std::string("cannot be written: ") + std::strerror(errno));
         return;
     }
     const std::string temp = path + ".part";
     {
         std::ofstream out(temp, std::ios::binary | std::ios::trunc);
-        if (!out) throw Error(path, std::string("cannot be written: ") + std::strerror(errno));
+        if (!out) throw WriteError(path, std::string("cannot be written: ") + std::strerror(errno));
         out << text << '\n';
         out.flush();
         if (!out) {
             std::error_code ec;
             std::filesystem::remove(temp, ec);
-            throw Error(path, "write failed (disk full?)");
+            throw WriteError(path, "write failed (disk full?)");
         }
     }
     std::error_code ec;
     std::filesystem::rename(temp, path, ec);
     if (ec) {
         std::filesystem::remove(temp, ec);
-        throw Error(path, "cannot be replaced: " + ec.message());
+        throw WriteError(path, "cannot be replaced: " + ec.message());
     }
 }
 

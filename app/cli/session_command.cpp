@@ -34,13 +34,27 @@ TakeId requireTake(const Session& session, const Arguments& args) {
     return *id;
 }
 
-// Reads a timings file checked against the audio's length, printing its warnings.
+// Reads a timings file checked against the audio's length, printing its
+// warnings. A file without a single interval is refused: storing it would
+// only delete the take's tiers.
 std::vector<TierRow> loadTierRows(const std::string& timingsPath, double durationSeconds) {
     TimingsReadOptions options;
     options.takeDurationS = durationSeconds;
     const LoadedTimings loaded = loadTimings(timingsPath, options);
     for (const auto& w : loaded.warnings) std::fprintf(stderr, "warning: %s: %s\n", timingsPath.c_str(), w.c_str());
-    return toTierRows(loaded.tiers);
+    std::vector<TierRow> rows = toTierRows(loaded.tiers);
+    if (rows.empty()) throw InputError(timingsPath, "holds no tiers (not one interval); nothing was stored");
+    return rows;
+}
+
+// Stores tiers; a row the session refuses (a label with a control
+// character…) is a fault of the timings file, so the message names it.
+void storeTiers(Session& session, TakeId id, const std::vector<TierRow>& rows, const std::string& timingsPath) {
+    try {
+        session.setTiers(id, rows);
+    } catch (const ParamError& e) {
+        throw InputError(timingsPath, e.problem() + "; nothing was stored");
+    }
 }
 
 int runNew(const Arguments& args) {
@@ -68,8 +82,11 @@ int runAdd(const Arguments& args) {
     if (auto timings = args.value("timings")) tiers = loadTierRows(*timings, probeAudio(audio.front()).durationSeconds());
 
     Session session = Session::open(file);
-    const std::vector<TakeId> ids = session.addTakes(takes);
-    if (!tiers.empty()) session.setTiers(ids.front(), tiers);
+    std::vector<TakeId> ids;
+    session.inOneTransaction("adding takes", [&] {
+        ids = session.addTakes(takes);
+        if (!tiers.empty()) storeTiers(session, ids.front(), tiers, *args.value("timings"));
+    });
     std::printf("added %zu take(s) to %s (ids %lld-%lld)\n", ids.size(), file.c_str(),
                 static_cast<long long>(ids.front()), static_cast<long long>(ids.back()));
     return kExitOk;
@@ -109,9 +126,20 @@ int runTiers(const Arguments& args) {
     if (args.positionals().size() != 2) throw UsageError("expects a session FILE and a TIMINGS file (see --help)");
     Session session = Session::open(args.positionals().front());
     const TakeId id = requireTake(session, args);
-    const auto rows = loadTierRows(args.positionals()[1], session.take(id).durationSeconds);
-    session.setTiers(id, rows);
-    std::printf("take %lld: stored %zu interval(s)\n", static_cast<long long>(id), rows.size());
+    const std::string& timings = args.positionals()[1];
+    const auto rows = loadTierRows(timings, session.take(id).durationSeconds);
+    std::size_t replaced = 0;
+    session.inOneTransaction("writing tiers", [&] {
+        // Checked under the write lock: tiers stored meanwhile by someone else count too.
+        replaced = session.tiers(id).size();
+        if (replaced > 0 && !args.has("replace"))
+            throw UsageError("take " + std::to_string(id) + " of " + session.path() + " already has tiers (" +
+                             std::to_string(replaced) + " interval(s)); add --replace to replace them. "
+                             "Nothing was changed");
+        storeTiers(session, id, rows, timings);
+    });
+    std::printf("take %lld: stored %zu interval(s)%s\n", static_cast<long long>(id), rows.size(),
+                replaced ? (" in place of " + std::to_string(replaced)).c_str() : "");
     return kExitOk;
 }
 
@@ -133,6 +161,23 @@ int runRelocate(const Arguments& args) {
     return kExitOk;
 }
 
+int runSalvage(const Arguments& args) {
+    if (args.positionals().size() != 2)
+        throw UsageError("expects the DAMAGED session file and a NEW file to create (see --help)");
+    const auto r = Session::salvage(args.positionals()[0], args.positionals()[1]);
+    std::printf("salvaged into %s: %d take(s), %d tier interval(s), %d suspect(s), %d mark(s)\n",
+                args.positionals()[1].c_str(), r.takes, r.tierIntervals, r.suspects, r.marks);
+    const int lost = r.takesUnreadable + r.takesWithTiersLost + r.takesWithSuspectsLost + r.marksUnreadable +
+                     r.marksOfLostTakes;
+    if (lost > 0)
+        std::fprintf(stderr,
+                     "not salvaged: %d take id(s) unreadable, %d take(s) without their tiers, %d without their "
+                     "suspects, %d mark id(s) unreadable, %d mark(s) of unreadable takes\n",
+                     r.takesUnreadable, r.takesWithTiersLost, r.takesWithSuspectsLost, r.marksUnreadable,
+                     r.marksOfLostTakes);
+    return kExitOk;
+}
+
 const std::map<std::string, Action>& actions() {
     static const std::map<std::string, Action> table = {
         {"new", {"FILE", "create an empty session file (refuses an existing file)", {}, runNew}},
@@ -150,9 +195,15 @@ const std::map<std::string, Action>& actions() {
           {{"take", "ID", "", "take id, line id or audio file name"}},
           runStatus}},
         {"tiers",
-         {"FILE --take ID TIMINGS", "store a timings file as the take's tiers (replaces its tiers)",
-          {{"take", "ID", "", "take id, line id or audio file name"}},
+         {"FILE --take ID TIMINGS [--replace]", "store a timings file as the take's tiers",
+          {{"take", "ID", "", "take id, line id or audio file name"},
+           {"replace", "", "", "replace the tiers the take already has (refused without it)"}},
           runTiers}},
+        {"salvage",
+         {"DAMAGED NEW", "copy every take, tier, suspect and mark still readable from a damaged session into "
+                         "a new session file",
+          {},
+          runSalvage}},
         {"relocate",
          {"FILE (--take ID AUDIO | --folder DIR)",
           "point a take at moved audio, or find every missing take's file by name in DIR",

@@ -24,9 +24,12 @@ std::string shellQuote(const std::string& s) {
 
 }  // namespace
 
-CliResult runCli(const std::vector<std::string>& args) {
+CliResult runCli(const std::vector<std::string>& args) { return runCliAfter("", args); }
+
+CliResult runCliAfter(const std::string& shellPrefix, const std::vector<std::string>& args) {
     TempDir dir;
-    std::string cmd = shellQuote(EARMARK_CLI_PATH);
+    std::string cmd = shellPrefix;
+    cmd.append(shellQuote(EARMARK_CLI_PATH));
     // Appended piece by piece: GCC 12 raises a false -Wrestrict on chained
     // temporaries of std::string here.
     for (const auto& a : args) cmd.append(" ").append(shellQuote(a));

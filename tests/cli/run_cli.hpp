@@ -13,6 +13,9 @@ struct CliResult {
 };
 
 CliResult runCli(const std::vector<std::string>& args);
+// The same, after shell commands run in the same shell first (e.g. a file
+// size limit: "ulimit -f 16; ", or environment: "LD_PRELOAD=… ").
+CliResult runCliAfter(const std::string& shellPrefix, const std::vector<std::string>& args);
 
 // The failure contract of every command: stderr is exactly one line, it
 // contains `part` (usually the file's path), and nothing crashed.

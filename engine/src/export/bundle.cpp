@@ -1,10 +1,10 @@
 #include "earmark/export/bundle.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/staging.hpp"
 
 #include <nlohmann/json.hpp>
 
-#include <unistd.h>
 
 #include <algorithm>
 #include <array>
@@ -92,16 +92,29 @@ void writeFile(const fs::path& path, const std::string& text, const fs::path& ta
     std::ofstream out(path, std::ios::binary | std::ios::trunc);
     out << text;
     out.flush();
-    if (!out) throw Error(target.string(), "could not write " + path.filename().string() + " (disk full?)");
+    if (!out) throw WriteError(target.string(), "could not write " + path.filename().string() + " (disk full?)");
 }
 
-// A hidden sibling of the target, e.g. ".bundle.partial-1234".
-fs::path sibling(const fs::path& target, const char* suffix) {
-    std::string name = ".";
-    name += target.filename().string();
-    name += suffix;
-    name += std::to_string(::getpid());
-    return target.parent_path() / name;
+// Whether a folder holds only what a bundle holds (clips/, images/,
+// manifest.json, manifest.csv): a leftover of an export, not a user's folder.
+bool looksLikeBundleWork(const fs::path& dir) {
+    std::error_code ec;
+    if (!fs::is_directory(dir, ec) || fs::is_symlink(dir, ec)) return false;
+    for (fs::directory_iterator it(dir, ec), end; !ec && it != end; it.increment(ec)) {
+        const std::string name = it->path().filename().string();
+        if (name != "clips" && name != "images" && name != "manifest.json" && name != "manifest.csv") return false;
+    }
+    return !ec;
+}
+
+// A killed export leaves its hidden work folders (".NAME.partial-PID", and
+// ".NAME.old-PID" while replacing) holding voice clips; each export removes
+// those of processes that no longer run from the folder it writes into.
+void removeLeftovers(const fs::path& parent) {
+    std::error_code ec;
+    for (const char* kind : {"partial", "old"})
+        for (const fs::path& stale : staleStaging(parent, kind))
+            if (looksLikeBundleWork(stale)) fs::remove_all(stale, ec);
 }
 
 // Removes the folder being built unless the export finished.
@@ -111,7 +124,7 @@ public:
         std::error_code ec;
         fs::remove_all(path_, ec);
         if (!fs::create_directories(path_ / "clips", ec))
-            throw Error(path_.parent_path().string(), "cannot create a folder here: " + ec.message());
+            throw WriteError(path_.parent_path().string(), "cannot create a folder here: " + ec.message());
     }
     ~StagingFolder() {
         std::error_code ec;
@@ -127,25 +140,35 @@ private:
     bool done_ = false;
 };
 
-// Moves the finished folder into place; an earlier bundle is set aside first
-// and removed only after the new one is in place.
+// Moves the finished folder into place. An earlier bundle is swapped with
+// it in one step (the old one then sits in the staging folder and is
+// removed); where the file system cannot swap, it is set aside first and
+// removed only after the new one is in place.
 void moveIntoPlace(const fs::path& staging, const fs::path& target, bool replace) {
     std::error_code ec;
     checkTarget(target, replace);  // again: the folder may have appeared while exporting
     if (isEmptyFolder(target)) fs::remove(target, ec);
-    fs::path old;
-    if (fs::exists(target, ec)) {
-        old = sibling(target, ".old-");
-        fs::rename(target, old, ec);
-        if (ec) throw Error(target.string(), "cannot be replaced: " + ec.message());
+    if (!fs::exists(target, ec)) {
+        if (!moveIntoPlaceNoReplace(staging, target))
+            throw InputError(target.string(), "appeared while exporting; nothing was replaced");
+        syncFolder(target.parent_path());
+        return;
     }
+    if (exchangeInPlace(staging, target)) {
+        syncFolder(target.parent_path());
+        fs::remove_all(staging, ec);
+        return;
+    }
+    const fs::path old = stagingPath(target, "old");
+    fs::rename(target, old, ec);
+    if (ec) throw WriteError(target.string(), "cannot be replaced: " + ec.message());
     fs::rename(staging, target, ec);
     if (ec) {
         std::error_code ignored;
-        if (!old.empty()) fs::rename(old, target, ignored);
-        throw Error(target.string(), "cannot be created: " + ec.message());
+        fs::rename(old, target, ignored);
+        throw WriteError(target.string(), "cannot be created: " + ec.message());
     }
-    if (!old.empty()) fs::remove_all(old, ec);
+    fs::remove_all(old, ec);
 }
 
 }  // namespace
@@ -197,6 +220,7 @@ BundleResult writeBundle(const Session& session, const std::string& folder, cons
     checkTarget(target, params.replaceExisting);
     std::error_code ec;
     fs::create_directories(target.parent_path(), ec);
+    removeLeftovers(target.parent_path());
 
     const DefectList list = collectDefects(session);
     for (const DefectRow& row : list.rows)
@@ -204,7 +228,7 @@ BundleResult writeBundle(const Session& session, const std::string& folder, cons
             throw InputError(row.take.audioPath, "audio of take " + std::to_string(row.take.id) +
                                                      " is missing (moved?); relocate the take before exporting");
 
-    StagingFolder staging(sibling(target, ".partial-"));
+    StagingFolder staging(stagingPath(target, "partial"));
     if (renderImage) fs::create_directories(staging.path() / "images", ec);
 
     ordered_json manifest = ordered_json::parse(defectListToJson(list, -1));

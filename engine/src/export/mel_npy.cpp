@@ -61,7 +61,7 @@ void writeMelNpy(const std::string& path, const Spectrogram& mel, const MelParam
     const std::string sidecar = melSidecarPath(path);
     std::ofstream out(sidecar);
     out << meta.dump(2) << "\n";
-    if (!out) throw Error(sidecar, "cannot be written");
+    if (!out) throw WriteError(sidecar, "cannot be written");
 }
 
 }  // namespace earmark

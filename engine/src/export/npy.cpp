@@ -242,7 +242,7 @@ void writeNpyFloat32(const std::string& path, const std::vector<float>& data,
     header += '\n';
 
     std::ofstream out(path, std::ios::binary | std::ios::trunc);
-    if (!out) throw Error(path, std::string("cannot create the file: ") + std::strerror(errno));
+    if (!out) throw WriteError(path, std::string("cannot create the file: ") + std::strerror(errno));
     out.write(kMagic, kMagicSize);
     const auto len = static_cast<std::uint32_t>(header.size());
     const std::array<unsigned char, 6> version{static_cast<unsigned char>(v2 ? 2 : 1), 0,
@@ -262,7 +262,7 @@ void writeNpyFloat32(const std::string& path, const std::vector<float>& data,
         }
     }
     out.close();
-    if (!out) throw Error(path, "writing failed (disk full or file removed?)");
+    if (!out) throw WriteError(path, "writing failed (disk full or file removed?)");
 }
 
 NpyArray readNpy(const std::string& path) {

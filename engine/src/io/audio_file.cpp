@@ -145,12 +145,12 @@ void writeWav(const std::string& path, const Signal& signal, WavEncoding encodin
     info.channels = 1;
     info.format = SF_FORMAT_WAV | (encoding == WavEncoding::Pcm16 ? SF_FORMAT_PCM_16 : SF_FORMAT_FLOAT);
     SndfilePtr file(sf_open(path.c_str(), SFM_WRITE, &info));
-    if (!file) throw Error(path, std::string("cannot be written: ") + sf_strerror(nullptr));
+    if (!file) throw WriteError(path, std::string("cannot be written: ") + sf_strerror(nullptr));
     // Clip instead of wrapping when float samples exceed full scale.
     sf_command(file.get(), SFC_SET_CLIPPING, nullptr, SF_TRUE);
     const auto n = static_cast<sf_count_t>(signal.samples.size());
     if (sf_writef_float(file.get(), signal.samples.data(), n) != n)
-        throw Error(path, std::string("write failed: ") + sf_strerror(file.get()));
+        throw WriteError(path, std::string("write failed: ") + sf_strerror(file.get()));
 }
 
 }  // namespace earmark

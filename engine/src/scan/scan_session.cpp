@@ -30,46 +30,58 @@ Suspect toStored(const TakeSuspect& s, double durationS) {
     return out;
 }
 
+// The scan's changes to one open session, as one transaction.
+SessionWriteSummary fillScanSession(Session& session, const ScanReport& report, const std::vector<ScanItem>& items) {
+    SessionWriteSummary summary;
+    session.inOneTransaction("writing the scan", [&] {
+        std::map<std::string, std::string> textOf;
+        for (const auto& item : items) textOf[item.id] = item.text;
+
+        std::map<std::string, TakeId> byPath;
+        for (const auto& t : session.takes()) byPath[canonical(t.audioPath)] = t.id;
+
+        std::vector<NewTake> fresh;
+        for (const auto& row : report.rows) {
+            if (row.failed) {
+                ++summary.skipped;
+                continue;
+            }
+            if (byPath.count(canonical(row.file))) continue;
+            fresh.push_back({row.file, row.id, textOf[row.id], ""});
+        }
+        const auto ids = session.addTakes(fresh);
+        summary.added = static_cast<int>(ids.size());
+        for (std::size_t i = 0; i < fresh.size(); ++i) byPath[canonical(fresh[i].audioPath)] = ids[i];
+
+        std::vector<TakeId> order;
+        std::set<TakeId> placed;
+        for (const auto& row : report.rows) {
+            if (row.failed) continue;
+            const TakeId id = byPath.at(canonical(row.file));
+            const double duration = session.take(id).durationSeconds;
+            std::vector<Suspect> stored;
+            for (const auto& s : row.suspects) stored.push_back(toStored(s, duration));
+            session.replaceSuspects(id, stored);
+            if (placed.insert(id).second) order.push_back(id);
+        }
+        summary.updated = static_cast<int>(order.size()) - summary.added;
+        for (const auto& t : session.takes())
+            if (!placed.count(t.id)) order.push_back(t.id);
+        session.setQueueOrder(order);
+    });
+    return summary;
+}
+
 }  // namespace
 
 SessionWriteSummary writeScanSession(const std::string& sessionPath, const ScanReport& report,
                                      const std::vector<ScanItem>& items) {
+    if (fs::exists(sessionPath)) {
+        Session session = Session::open(sessionPath);
+        return fillScanSession(session, report, items);
+    }
     SessionWriteSummary summary;
-    Session session = fs::exists(sessionPath) ? Session::open(sessionPath) : Session::create(sessionPath);
-    std::map<std::string, std::string> textOf;
-    for (const auto& item : items) textOf[item.id] = item.text;
-
-    std::map<std::string, TakeId> byPath;
-    for (const auto& t : session.takes()) byPath[canonical(t.audioPath)] = t.id;
-
-    std::vector<NewTake> fresh;
-    for (const auto& row : report.rows) {
-        if (row.failed) {
-            ++summary.skipped;
-            continue;
-        }
-        if (byPath.count(canonical(row.file))) continue;
-        fresh.push_back({row.file, row.id, textOf[row.id], ""});
-    }
-    const auto ids = session.addTakes(fresh);
-    summary.added = static_cast<int>(ids.size());
-    for (std::size_t i = 0; i < fresh.size(); ++i) byPath[canonical(fresh[i].audioPath)] = ids[i];
-
-    std::vector<TakeId> order;
-    std::set<TakeId> placed;
-    for (const auto& row : report.rows) {
-        if (row.failed) continue;
-        const TakeId id = byPath.at(canonical(row.file));
-        const double duration = session.take(id).durationSeconds;
-        std::vector<Suspect> stored;
-        for (const auto& s : row.suspects) stored.push_back(toStored(s, duration));
-        session.replaceSuspects(id, stored);
-        if (placed.insert(id).second) order.push_back(id);
-    }
-    summary.updated = static_cast<int>(order.size()) - summary.added;
-    for (const auto& t : session.takes())
-        if (!placed.count(t.id)) order.push_back(t.id);
-    session.setQueueOrder(order);
+    Session::createWhole(sessionPath, [&](Session& session) { summary = fillScanSession(session, report, items); });
     return summary;
 }
 

@@ -5,6 +5,7 @@
 #include "earmark/store/utc_clock.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/staging.hpp"
 
 #include <fcntl.h>
 #include <unistd.h>
@@ -60,7 +61,8 @@ std::string fileUri(const std::string& path) {
 
 enum class Access { ReadWrite, ReadOnly, Immutable };
 
-Db openConnection(const std::string& path, Access access) {
+// `shownAs` is the name messages use (the file being made, for a staging file).
+Db openConnection(const std::string& path, Access access, const std::string& shownAs = {}) {
     sqlite3* raw = nullptr;
     int flags = SQLITE_OPEN_NOMUTEX;
     flags |= access == Access::ReadWrite ? SQLITE_OPEN_READWRITE : SQLITE_OPEN_READONLY;
@@ -69,7 +71,7 @@ Db openConnection(const std::string& path, Access access) {
     const std::string name = access == Access::Immutable ? fileUri(path) + "?immutable=1" : path;
     if (access == Access::Immutable) flags |= SQLITE_OPEN_URI;
     const int rc = sqlite3_open_v2(name.c_str(), &raw, flags, nullptr);
-    Db db{store::DbHandle(raw), path};
+    Db db{store::DbHandle(raw), shownAs.empty() ? path : shownAs};
     if (rc != SQLITE_OK) store::throwSqlite(db, rc, "opening the session");
     sqlite3_extended_result_codes(raw, 1);
     sqlite3_busy_timeout(raw, store::kBusyTimeoutMs);
@@ -84,8 +86,21 @@ Db openConnection(const std::string& path, Access access) {
 void configureWritable(const Db& db) {
     store::Statement mode(db, "PRAGMA journal_mode = WAL", "switching the session to WAL mode");
     if (!mode.step() || mode.text(0) != "wal")
-        throw Error(db.path, "cannot use write-ahead logging here (network or read-only file system?)");
+        throw WriteError(db.path, "cannot use write-ahead logging here (network or read-only file system?)");
     store::exec(db, "PRAGMA synchronous = FULL; PRAGMA foreign_keys = ON;", "setting up the session");
+}
+
+// SQLite's quick check (the b-trees and records, without comparing indexes to
+// their tables; linear in the file's size): "ok" or its first problem.
+std::string quickCheck(const Db& db) {
+    store::Statement st(db, "PRAGMA quick_check(1)", "checking the session");
+    std::string problem = st.step() ? st.text(0) : std::string("no answer from the check");
+    // One line for messages: "*** in database main ***\nOn tree page 11 …" → "on tree page 11 …".
+    const std::string heading = "*** in database main ***\n";
+    if (problem.rfind(heading, 0) == 0) problem.erase(0, heading.size());
+    for (char& c : problem)
+        if (c == '\n' || c == '\r') c = ' ';
+    return problem;
 }
 
 void removeSessionFiles(const std::string& path) {
@@ -95,19 +110,20 @@ void removeSessionFiles(const std::string& path) {
 
 // Creates the file exclusively (so an existing file is never taken over) and
 // migrates it to `version`. On failure nothing is left behind.
-Db createFile(const std::string& path, int version) {
+Db createFile(const std::string& path, int version, const std::string& shownAs = {}) {
+    const std::string& name = shownAs.empty() ? path : shownAs;
     const fs::path folder = fs::absolute(path).parent_path();
     std::error_code ec;
     if (!fs::is_directory(folder, ec))
-        throw Error(path, "cannot be created: folder " + folder.string() + " does not exist");
+        throw WriteError(name, "cannot be created: folder " + folder.string() + " does not exist");
     const int fd = ::open(path.c_str(), O_WRONLY | O_CREAT | O_EXCL | O_CLOEXEC, 0666);
     if (fd < 0) {
-        if (errno == EEXIST) throw InputError(path, "already exists; choose another name or remove it first");
-        throw Error(path, std::string("cannot be created: ") + std::strerror(errno));
+        if (errno == EEXIST) throw InputError(name, "already exists; choose another name or remove it first");
+        throw WriteError(name, std::string("cannot be created: ") + std::strerror(errno));
     }
     ::close(fd);
     try {
-        Db db = openConnection(path, Access::ReadWrite);
+        Db db = openConnection(path, Access::ReadWrite, shownAs);
         configureWritable(db);
         store::migrate(db, version);
         store::Statement info(db, "INSERT INTO session_info (key, value) VALUES ('created_utc', ?1)",
@@ -134,6 +150,37 @@ Session Session::create(const std::string& path) {
     return Session(std::move(impl));
 }
 
+void Session::createWhole(const std::string& path, const std::function<void(Session&)>& fill) {
+    const fs::path target = fs::absolute(path).lexically_normal();
+    std::error_code ec;
+    if (fs::exists(target, ec)) throw InputError(path, "already exists; choose another name or remove it first");
+    const fs::path folder = target.parent_path();
+    std::string leftoverPrefix = ".";
+    leftoverPrefix.append(target.filename().string()).append(".");
+    for (const fs::path& stale : staleStaging(folder, "new"))
+        if (stale.filename().string().rfind(leftoverPrefix, 0) == 0) fs::remove(stale, ec);
+    const fs::path temp = stagingPath(target, "new");
+    removeSessionFiles(temp.string());
+    try {
+        {
+            auto impl = std::make_unique<Impl>();
+            impl->db = createFile(temp.string(), kSchemaVersion, path);  // messages name `path`
+            impl->folder = folder;
+            Session session(std::move(impl));
+            fill(session);
+        }  // closed: SQLite folds the write-ahead log into the file and removes it
+        if (fs::exists(temp.string() + "-wal", ec))
+            throw WriteError(path, "could not be finished (its write-ahead log was not folded back; disk full?); "
+                                   "nothing was created");
+        if (!moveIntoPlaceNoReplace(temp, target))
+            throw InputError(path, "was created by another program meanwhile; nothing was changed");
+    } catch (...) {
+        removeSessionFiles(temp.string());
+        throw;
+    }
+    syncFolder(folder);
+}
+
 Session Session::open(const std::string& path, OpenMode mode) {
     checkExistingFile(path);
     const bool readOnly = mode == OpenMode::ReadOnly;
@@ -141,10 +188,10 @@ Session Session::open(const std::string& path, OpenMode mode) {
     if (!readOnly) {
         // Checked before SQLite sees the file, so nothing is created or changed.
         if (::access(path.c_str(), W_OK) != 0)
-            throw Error(path, std::string("is read-only (") + std::strerror(errno) +
+            throw WriteError(path, std::string("is read-only (") + std::strerror(errno) +
                                   "); nothing was changed. Copy it somewhere writable to edit it");
         if (::access(folder.c_str(), W_OK | X_OK) != 0)
-            throw Error(path, "is in a read-only folder (" + std::string(std::strerror(errno)) +
+            throw WriteError(path, "is in a read-only folder (" + std::string(std::strerror(errno)) +
                                   "); SQLite needs to write its -wal and -shm files beside it. "
                                   "Nothing was changed");
     }
@@ -178,6 +225,11 @@ Session Session::open(const std::string& path, OpenMode mode) {
                                        "; open it once for writing to upgrade it");
         store::exec(db, "PRAGMA query_only = ON", "opening the session");
     } else {
+        // A write into a damaged file may land in a page nobody can read back
+        // (a mark "added" that can never be listed): refuse before writing.
+        const std::string check = quickCheck(db);
+        if (check != "ok")
+            throw InputError(path, "is damaged (" + check + "); nothing was written. " + store::kSalvageHint);
         configureWritable(db);
         if (version < kSchemaVersion) store::migrate(db, kSchemaVersion);
     }
@@ -185,6 +237,12 @@ Session Session::open(const std::string& path, OpenMode mode) {
 }
 
 const std::string& Session::path() const { return impl_->db.path; }
+
+void Session::inOneTransaction(const std::string& doing, const std::function<void()>& change) {
+    store::WriteTransaction tx(impl_->db, doing);
+    change();
+    tx.commit();
+}
 bool Session::readOnly() const { return impl_->readOnly; }
 
 std::string Session::integrityCheck() const {

@@ -214,6 +214,16 @@ std::string Session::relocateTake(TakeId id, const std::string& newAudioPath) {
         throw InputError(newAudioPath, "lasts " + std::to_string(info.durationSeconds()) +
                                            " s, shorter than the marks of take " + std::to_string(id) +
                                            " (up to " + std::to_string(lastEnd.real(0)) + " s); not relocated");
+    // Tiers are refused the same way, not clipped: a cut word tier would
+    // silently misplace every word after the cut.
+    Statement lastTier(impl_->db, "SELECT max(end_s) FROM tier_intervals WHERE take_id = ?1", "relocating a take");
+    lastTier.bind(1, id);
+    if (lastTier.step() && lastTier.real(0) > info.durationSeconds() + MarkDraft::kEndToleranceSeconds)
+        throw InputError(newAudioPath, "lasts " + std::to_string(info.durationSeconds()) +
+                                           " s, shorter than the tiers of take " + std::to_string(id) + " (up to " +
+                                           std::to_string(lastTier.real(0)) +
+                                           " s); not relocated. Store tiers that fit it first (session tiers "
+                                           "--replace)");
     Statement update(impl_->db,
                      "UPDATE takes SET audio_path = ?1, duration_s = ?2, sample_rate = ?3, channels = ?4 "
                      "WHERE id = ?5",
@@ -225,15 +235,18 @@ std::string Session::relocateTake(TakeId id, const std::string& newAudioPath) {
 }
 
 int Session::relocateMissingTakes(const std::string& folder) {
-    int moved = 0;
     std::error_code ec;
-    for (const Take& t : takes()) {
-        if (fs::is_regular_file(t.audioPath, ec)) continue;
-        const fs::path candidate = fs::path(folder) / fs::path(t.storedAudioPath).filename();
-        if (!fs::is_regular_file(candidate, ec)) continue;
-        relocateTake(t.id, candidate.string());
-        ++moved;
-    }
+    if (!fs::is_directory(folder, ec)) throw InputError(folder, "is not a folder (missing?); nothing was relocated");
+    int moved = 0;
+    inOneTransaction("relocating takes", [&] {
+        for (const Take& t : takes()) {
+            if (fs::is_regular_file(t.audioPath, ec)) continue;
+            const fs::path candidate = fs::path(folder) / fs::path(t.storedAudioPath).filename();
+            if (!fs::is_regular_file(candidate, ec)) continue;
+            relocateTake(t.id, candidate.string());
+            ++moved;
+        }
+    });
     return moved;
 }
 

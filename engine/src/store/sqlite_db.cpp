@@ -9,20 +9,20 @@ void throwSqlite(const Db& db, int rc, const std::string& doing) {
     const std::string unchanged = "; nothing was changed";
     switch (rc & 0xFF) {
     case SQLITE_FULL:
-        throw Error(db.path, "disk full while " + doing + unchanged);
+        throw WriteError(db.path, "disk full while " + doing + unchanged);
     case SQLITE_IOERR:
-        throw Error(db.path, "could not be written while " + doing + " (" + detail +
+        throw WriteError(db.path, "could not be written while " + doing + " (" + detail +
                                  "; disk full or failing?)" + unchanged);
     case SQLITE_READONLY:
-        throw Error(db.path, "is read-only (file, folder or open mode) while " + doing + unchanged);
+        throw WriteError(db.path, "is read-only (file, folder or open mode) while " + doing + unchanged);
     case SQLITE_BUSY:
     case SQLITE_LOCKED:
-        throw Error(db.path, "is locked by another program (waited " +
+        throw WriteError(db.path, "is locked by another program (waited " +
                                  std::to_string(kBusyTimeoutMs / 1000) + " s) while " + doing + "; try again" + unchanged);
     case SQLITE_NOTADB:
         throw InputError(db.path, "is not an Earmark session (not an SQLite database)");
     case SQLITE_CORRUPT:
-        throw InputError(db.path, "is damaged (" + detail + ") while " + doing);
+        throw InputError(db.path, "is damaged (" + detail + ") while " + doing + ". " + kSalvageHint);
     case SQLITE_CANTOPEN:
         throw InputError(db.path, "cannot be opened (" + detail + ")");
     case SQLITE_CONSTRAINT:
@@ -92,21 +92,27 @@ std::string Statement::text(int column) const {
     return p ? std::string(p, static_cast<std::size_t>(n)) : std::string();
 }
 
-WriteTransaction::WriteTransaction(const Db& db, std::string doing) : db_(db), doing_(std::move(doing)) {
-    exec(db_, "BEGIN IMMEDIATE", doing_);
+WriteTransaction::WriteTransaction(const Db& db, std::string doing)
+    : db_(db), doing_(std::move(doing)), nested_(sqlite3_get_autocommit(db.get()) == 0) {
+    exec(db_, nested_ ? "SAVEPOINT earmark_step" : "BEGIN IMMEDIATE", doing_);
     open_ = true;
 }
 
 WriteTransaction::~WriteTransaction() {
-    if (open_) sqlite3_exec(db_.get(), "ROLLBACK", nullptr, nullptr, nullptr);
+    if (!open_) return;
+    if (nested_)
+        sqlite3_exec(db_.get(), "ROLLBACK TO earmark_step; RELEASE earmark_step", nullptr, nullptr, nullptr);
+    else
+        sqlite3_exec(db_.get(), "ROLLBACK", nullptr, nullptr, nullptr);
 }
 
 void WriteTransaction::commit() {
-    exec(db_, "COMMIT", doing_);
+    exec(db_, nested_ ? "RELEASE earmark_step" : "COMMIT", doing_);
     open_ = false;
 }
 
 ReadTransaction::ReadTransaction(const Db& db) : db_(db) {
+    if (sqlite3_get_autocommit(db.get()) == 0) return;  // inside a transaction: already one snapshot
     exec(db_, "BEGIN", "reading");
     open_ = true;
 }

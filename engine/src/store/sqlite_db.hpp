@@ -27,6 +27,10 @@ struct Db {
     sqlite3* get() const { return handle.get(); }
 };
 
+// What a damaged file's messages say to do.
+inline constexpr const char* kSalvageHint =
+    "Copy what can still be read into a new session with: earmark-cli session salvage FILE NEW-FILE";
+
 // Maps an SQLite result code to InputError / Error with a sentence a person
 // can act on ("disk full: … nothing was changed"). `doing` names the action
 // ("adding a mark").
@@ -65,7 +69,9 @@ private:
 
 // BEGIN IMMEDIATE: takes the write lock at the start, so two writers queue up
 // on the busy timeout instead of failing when a read upgrades to a write.
-// Rolls back unless commit() was called.
+// Rolls back unless commit() was called. Inside a transaction already open
+// on the connection (Session::inOneTransaction) it is a SAVEPOINT instead:
+// its changes join the outer transaction and land only with it.
 class WriteTransaction {
 public:
     WriteTransaction(const Db& db, std::string doing);
@@ -78,9 +84,11 @@ private:
     const Db& db_;
     std::string doing_;
     bool open_ = false;
+    bool nested_ = false;
 };
 
-// A deferred read transaction: several SELECTs see one snapshot.
+// A deferred read transaction: several SELECTs see one snapshot (nothing to
+// do inside a transaction already open).
 class ReadTransaction {
 public:
     explicit ReadTransaction(const Db& db);

@@ -36,6 +36,15 @@ public:
     using Error::Error;
 };
 
+// A file or folder could not be written: disk full, read-only file, folder
+// or file system, a session locked by another program too long. `subject`
+// is the file; the problem says whether anything was changed. The command
+// line exits 4.
+class WriteError : public Error {
+public:
+    using Error::Error;
+};
+
 // Thrown when a progress callback asked to stop.
 class Cancelled : public std::runtime_error {
 public:

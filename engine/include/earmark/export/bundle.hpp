@@ -14,8 +14,12 @@
 //                       "images") and each clip's picture size (read back from
 //                       the PNG header)
 //
-// The bundle is built in a sibling folder and moved into place at the end, so
-// a failed or cancelled export leaves no half bundle. An existing folder is
+// The bundle is built in a hidden sibling folder (".NAME.partial-PID") and
+// moved into place at the end (an earlier bundle is swapped with it in one
+// step), so a failed, cancelled or killed export leaves the old bundle or the
+// new one, never half of one. A killed export's hidden folder still holds
+// voice clips: every export first removes such leftovers of processes that no
+// longer run from the folder it writes into. An existing folder is
 // never replaced unless BundleParams::replaceExisting is set, and even then
 // only when it is empty or an earlier Earmark bundle (holds a manifest.json
 // of format "earmark-bundle") — never an unrelated folder.

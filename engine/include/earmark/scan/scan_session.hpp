@@ -17,10 +17,12 @@ struct SessionWriteSummary {
 // measured take not yet in it (matched by the audio file's canonical path),
 // replaces each scanned take's suspects, and puts the scanned takes at the
 // front of the queue in ranking order (other takes keep their order behind
-// them), each step one transaction. `texts` supplies the script line per id
-// (may be empty). Suspects read back from a CSV report without values are
-// stored with value and threshold 0 and the whole take as span.
-// Throws the session's errors (InputError, ParamError, Error).
+// them) — all in one transaction, so the session holds the old state or
+// the new one, never a mix. A new session file is made whole (see
+// Session::createWhole): killed or failed, no file is left. `items` supply
+// the script line per id (may be empty). Suspects read back from a CSV report
+// without values are stored with value and threshold 0 and the whole take as
+// span. Throws the session's errors (InputError, ParamError, WriteError).
 SessionWriteSummary writeScanSession(const std::string& sessionPath, const ScanReport& report,
                                      const std::vector<ScanItem>& items = {});
 

@@ -30,6 +30,7 @@
 #include "earmark/store/suspect.hpp"
 #include "earmark/store/take.hpp"
 
+#include <functional>
 #include <memory>
 #include <optional>
 #include <string>
@@ -52,12 +53,45 @@ public:
     // exists; Error when the folder is missing or not writable.
     static Session create(const std::string& path);
     static Session open(const std::string& path, OpenMode mode = OpenMode::ReadWrite);
+    // Creates a new session file whole: built under a hidden name beside
+    // `path` (".NAME.new-PID"), filled by `fill` and moved into place only
+    // after `fill` returned and the file was closed, so a failed or killed
+    // command leaves no session at all. Messages name `path`. Refuses
+    // (InputError) when `path` exists, now or by the time it would be moved.
+    // Leftovers of killed processes (".NAME.new-PID…") are removed first.
+    static void createWhole(const std::string& path, const std::function<void(Session&)>& fill);
+
+    // What Session::salvage copied, and how many rows it could not read.
+    struct SalvageReport {
+        int takes = 0, tierIntervals = 0, suspects = 0, marks = 0;
+        int takesUnreadable = 0;             // take ids whose row could not be read (or that an
+                                             // index lists but the table no longer finds)
+        int takesWithTiersLost = 0;          // copied takes whose tiers could not all be read (none kept)
+        int takesWithSuspectsLost = 0;       // the same for suspects
+        int marksUnreadable = 0;             // the same for marks, and marks read back invalid
+        int marksOfLostTakes = 0;            // readable marks whose take could not be read
+    };
+    // Copies every take, tier, suspect and mark that can still be read from a
+    // damaged session into a new session file at `newPath` (made whole, see
+    // createWhole), keeping every id. Rows are looked up one id at a time, so
+    // one damaged page loses only the rows stored on it; a take's tiers or
+    // suspects are kept only when all of them could be read. The damaged file
+    // is only read. Refuses (InputError) when `newPath` exists or the damaged
+    // file cannot be opened at all.
+    static SalvageReport salvage(const std::string& damagedPath, const std::string& newPath);
 
     Session(Session&&) noexcept;
     Session& operator=(Session&&) noexcept;
     ~Session();
 
     const std::string& path() const;
+    // Runs `change` as one write transaction: every write it makes through
+    // this Session lands together when it returns, or not at all when it
+    // throws (the exception is passed on) or the process dies. The write
+    // lock is held throughout, so keep slow work (analysis, file reads)
+    // outside. Calls may nest; only the outermost one commits. `doing`
+    // names the change in messages ("writing the scan").
+    void inOneTransaction(const std::string& doing, const std::function<void()>& change);
     bool readOnly() const;
     // SQLite's PRAGMA integrity_check: "ok", or its list of problems.
     std::string integrityCheck() const;
@@ -77,11 +111,14 @@ public:
     // the folder was moved). Its marks stay either way.
     bool audioExists(TakeId id) const;
     // Points a take at a new audio file (probed first). Refuses (InputError)
-    // a file shorter than the end of one of the take's marks. Returns the
+    // a file shorter than the end of one of the take's marks or tier
+    // intervals (beyond 0.5 ms; tiers are never clipped). Returns the
     // previous stored path, for undo.
     std::string relocateTake(TakeId id, const std::string& newAudioPath);
     // For every take whose audio is missing, looks for a file of the same
-    // name in `folder` and relocates the take to it. Returns how many moved.
+    // name in `folder` and relocates the take to it, all in one transaction
+    // (one refused file relocates nothing). InputError when `folder` is not
+    // a folder. Returns how many moved.
     int relocateMissingTakes(const std::string& folder);
     // Returns the previous status, for undo.
     ReviewStatus setStatus(TakeId id, ReviewStatus status);
