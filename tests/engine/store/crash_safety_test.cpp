@@ -8,6 +8,7 @@
 #include <gtest/gtest.h>
 #include <poll.h>
 
+#include <algorithm>
 #include <chrono>
 #include <csignal>
 #include <random>
@@ -27,8 +28,9 @@ struct KilledWriter {
 };
 
 // Forks a child that adds marks in a loop and prints each returned id; kills
-// it with SIGKILL after `killAfter`.
-KilledWriter addMarksUntilKilled(const std::string& file, std::chrono::microseconds killAfter) {
+// it with SIGKILL `killAfter` after it has printed `waitForMarks` ids (so
+// the kills that should land among the adds do, however slow the machine).
+KilledWriter addMarksUntilKilled(const std::string& file, int waitForMarks, std::chrono::microseconds killAfter) {
     int fds[2];
     EXPECT_EQ(pipe(fds), 0);
     const pid_t pid = fork();
@@ -46,15 +48,17 @@ KilledWriter addMarksUntilKilled(const std::string& file, std::chrono::microseco
         }
     }
     close(fds[1]);
+    std::string text;
+    char buf[4096];
+    ssize_t n;
+    while (std::count(text.begin(), text.end(), '\n') < waitForMarks && (n = read(fds[0], buf, sizeof buf)) > 0)
+        text.append(buf, static_cast<std::size_t>(n));
     std::this_thread::sleep_for(killAfter);
     kill(pid, SIGKILL);
     int status = 0;
     waitpid(pid, &status, 0);
     EXPECT_TRUE(WIFSIGNALED(status) && WTERMSIG(status) == SIGKILL);
     // Everything the child wrote before it died is still in the pipe.
-    std::string text;
-    char buf[4096];
-    ssize_t n;
     while ((n = read(fds[0], buf, sizeof buf)) > 0) text.append(buf, static_cast<std::size_t>(n));
     close(fds[0]);
     KilledWriter w;
@@ -81,7 +85,10 @@ TEST(CrashSafety, MarksWhoseAddReturnedSurviveSigkill) {
     int runsWithMarks = 0;
     std::set<MarkId> everReturned;
     for (int run = 0; run < runs; ++run) {
-        const KilledWriter w = addMarksUntilKilled(file, std::chrono::microseconds(killUs(rng)));
+        // One run in four is killed at a random moment from its start (while
+        // it opens the file, often); the others once 1–3 marks are in.
+        const int waitFor = run % 4 == 0 ? 0 : 1 + run % 3;
+        const KilledWriter w = addMarksUntilKilled(file, waitFor, std::chrono::microseconds(killUs(rng)));
         const Session s = Session::open(file);
         ASSERT_EQ(s.integrityCheck(), "ok") << "run " << run;
         std::set<MarkId> present;
