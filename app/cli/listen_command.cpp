@@ -183,7 +183,7 @@ int runAnalyse(const Arguments& args) {
 
     std::error_code ec;
     fs::create_directories(*out, ec);
-    if (ec) throw Error(*out, "cannot be created: " + ec.message());
+    if (ec) throw WriteError(*out, "cannot be created: " + ec.message());
     const fs::path dir(*out);
     // The texts end with their own line break; writeTextOutput adds one, so drop ours
     // (a CSV's last record keeps its CRLF).

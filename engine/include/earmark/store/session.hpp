@@ -76,8 +76,8 @@ public:
     // createWhole), keeping every id. Rows are looked up one id at a time, so
     // one damaged page loses only the rows stored on it; a take's tiers or
     // suspects are kept only when all of them could be read. The damaged file
-    // is only read. Refuses (InputError) when `newPath` exists or the damaged
-    // file cannot be opened at all.
+    // is only read. Listening tests are not copied. Refuses (InputError) when
+    // `newPath` exists or the damaged file cannot be opened at all.
     static SalvageReport salvage(const std::string& damagedPath, const std::string& newPath);
 
     Session(Session&&) noexcept;
