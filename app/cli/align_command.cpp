@@ -9,6 +9,7 @@
 #include "earmark/align/text_aligner.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
+#include "earmark/io/text_file.hpp"
 #include "earmark/tiers/timings_csv.hpp"
 #include "earmark/tiers/timings_json.hpp"
 #include "earmark/tiers/timings_vtt.hpp"
@@ -45,16 +46,6 @@ Arguments makeArguments() {
         });
 }
 
-std::string readTextFile(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, std::string("cannot be read: ") + std::strerror(errno));
-    std::ostringstream text;
-    text << in.rdbuf();
-    std::string s = text.str();
-    if (s.rfind("\xEF\xBB\xBF", 0) == 0) s.erase(0, 3);  // a UTF-8 byte-order mark is not text
-    return s;
-}
-
 // writeTextOutput adds the final line end itself.
 std::string withoutFinalNewline(std::string text) {
     while (!text.empty() && (text.back() == '\n' || text.back() == '\r')) text.pop_back();
@@ -85,7 +76,7 @@ int runAlign(const std::vector<std::string>& argv) {
         throw UsageError("give the words with exactly one of --text or --text-file");
     const std::string audioPath = args.positionals().front();
     const std::string textSubject = args.has("text-file") ? *args.value("text-file") : "--text";
-    const std::string text = args.has("text") ? *args.value("text") : readTextFile(*args.value("text-file"));
+    const std::string text = args.has("text") ? *args.value("text") : withoutByteOrderMark(readTextFile(*args.value("text-file")));
 
     AlignParams params;
     params.speech.voice = args.valueOr("voice", params.speech.voice);

@@ -122,6 +122,11 @@ int runAnalyze(const std::vector<std::string>& argv) {
         throw UsageError("expects exactly one AUDIO file (see earmark-cli analyze --help)");
     const std::string path = args.positionals().front();
     const AnalysisParams params = makeParams(args);
+    const std::string npyOut = args.valueOr("mel-npy", "-");
+    refuseClobbering({{"--json", args.valueOr("json", "-")},
+                      {"--mel-npy", npyOut},
+                      {"--mel-npy's settings", npyOut == "-" ? "-" : npyOut + ".json"}},
+                     {path});
 
     TakeAnalysis analysis;
     {

@@ -10,6 +10,7 @@
 #include "earmark/compare/take_comparison.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
+#include "earmark/io/text_file.hpp"
 #include "earmark/tiers/timings_file.hpp"
 
 #include <cerrno>
@@ -36,13 +37,6 @@ Arguments makeArguments() {
             {"json", "OUT|-", "", "write the comparison as JSON to OUT, or to stdout with -"},
             {"progress", "", "", "show progress on stderr even when it is not a terminal"},
         });
-}
-
-std::string readText(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, std::string("cannot be read: ") + std::strerror(errno));
-    std::string s{std::istreambuf_iterator<char>(in), std::istreambuf_iterator<char>()};
-    return s.rfind("\xEF\xBB\xBF", 0) == 0 ? s.substr(3) : s;  // a byte-order mark is not text
 }
 
 ChannelSelection channelOption(const Arguments& args) {
@@ -138,11 +132,13 @@ int runCompare(const std::vector<std::string>& argv) {
         throw UsageError("give the words with --text or --text-file, not both");
     const std::string pathA = args.positionals()[0], pathB = args.positionals()[1];
     const std::string textSubject = args.has("text-file") ? *args.value("text-file") : "--text";
-    const std::string text = args.has("text-file") ? readText(*args.value("text-file")) : args.valueOr("text", "");
+    const std::string text = args.has("text-file") ? withoutByteOrderMark(readTextFile(*args.value("text-file"))) : args.valueOr("text", "");
     CompareParams params;
     params.text.speech.voice = args.valueOr("voice", params.text.speech.voice);
     const ChannelSelection channels = channelOption(args);
 
+    refuseClobbering({{"--json", args.valueOr("json", "-")}},
+                     {pathA, pathB, args.valueOr("words-a", "-"), args.valueOr("words-b", "-")});
     TakeComparison result;
     {
         TerminalProgress bar("comparing " + pathA + " and " + pathB, args.has("progress"));

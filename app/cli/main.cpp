@@ -6,7 +6,9 @@
 
 #include "earmark/core/error.hpp"
 
+#include <cerrno>
 #include <cstdio>
+#include <cstring>
 #include <exception>
 #include <functional>
 #include <map>
@@ -50,6 +52,24 @@ void printUsage(std::FILE* to) {
                      "130 interrupted.\n");
 }
 
+// A message stays one line even when a file name holds a line break or
+// other control characters: they are shown as \n, \r, \t or \xHH.
+std::string oneLine(const char* message) {
+    std::string out;
+    for (const char* p = message; *p; ++p) {
+        const auto c = static_cast<unsigned char>(*p);
+        if (c == '\n') out += "\\n";
+        else if (c == '\r') out += "\\r";
+        else if (c == '\t') out += "\\t";
+        else if (c < 0x20 || c == 0x7F) {
+            char hex[8];
+            std::snprintf(hex, sizeof hex, "\\x%02X", c);
+            out += hex;
+        } else out += *p;
+    }
+    return out;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
@@ -68,15 +88,22 @@ int main(int argc, char** argv) {
     const std::string name = args[0];
     args.erase(args.begin());
     try {
-        return it->second.run(args);
+        const int code = it->second.run(args);
+        // Output to a full disk or a closed pipe must not pass for success.
+        if (std::fflush(stdout) != 0 || std::ferror(stdout)) {
+            std::fprintf(stderr, "earmark-cli %s: standard output: write failed: %s\n", name.c_str(),
+                         std::strerror(errno));
+            return earmark::cli::kExitFailure;
+        }
+        return code;
     } catch (const earmark::cli::UsageError& e) {
-        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), oneLine(e.what()).c_str());
         return earmark::cli::kExitUsage;
     } catch (const earmark::ParamError& e) {
-        std::fprintf(stderr, "earmark-cli %s: invalid setting: %s\n", name.c_str(), e.what());
+        std::fprintf(stderr, "earmark-cli %s: invalid setting: %s\n", name.c_str(), oneLine(e.what()).c_str());
         return earmark::cli::kExitUsage;
     } catch (const earmark::InputError& e) {
-        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), oneLine(e.what()).c_str());
         return earmark::cli::kExitBadInput;
     } catch (const earmark::Cancelled&) {
         std::fprintf(stderr, "earmark-cli %s: interrupted\n", name.c_str());
@@ -85,13 +112,13 @@ int main(int argc, char** argv) {
         std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
         return earmark::cli::kExitCannotWrite;
     } catch (const earmark::Error& e) {
-        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), e.what());
+        std::fprintf(stderr, "earmark-cli %s: %s\n", name.c_str(), oneLine(e.what()).c_str());
         return earmark::cli::kExitFailure;
     } catch (const std::bad_alloc&) {
         std::fprintf(stderr, "earmark-cli %s: out of memory\n", name.c_str());
         return earmark::cli::kExitFailure;
     } catch (const std::exception& e) {
-        std::fprintf(stderr, "earmark-cli %s: internal error: %s\n", name.c_str(), e.what());
+        std::fprintf(stderr, "earmark-cli %s: internal error: %s\n", name.c_str(), oneLine(e.what()).c_str());
         return earmark::cli::kExitFailure;
     }
 }

@@ -37,6 +37,10 @@ int runMerge(const std::vector<std::string>& argv) {
     const ScanReport merged = mergeReports(std::move(parts), rules);
     const auto json = args.value("json");
     if (json && *json == "-" && pos[0] == "-") throw UsageError("OUT and --json cannot both be stdout");
+    std::vector<std::string> inputs(pos.begin() + 1, pos.end());
+    inputs.push_back(args.valueOr("rules", "-"));
+    refuseClobbering({{"OUT", pos[0]}, {"--json", json.value_or("-")}, {"--session", args.valueOr("session", "-")}},
+                     inputs);
     writeTextOutput(pos[0], csvForOutput(reportToCsv(merged)));
     if (json) writeTextOutput(*json, reportToJson(merged, rules));
     std::fprintf(stderr, "merge: %zu take(s) from %zu part(s)%s\n", merged.rows.size(), pos.size() - 1,

@@ -161,6 +161,7 @@ int runMelDiff(const std::vector<std::string>& argv) {
         throw UsageError("expects AUDIO and PREDICTED.npy (see earmark-cli model mel-diff --help)");
     const std::string audioPath = args.positionals()[0], npyPath = args.positionals()[1];
     const PredictedMelOptions options = melOptions(args);
+    refuseClobbering({{"--json", args.valueOr("json", "-")}}, {audioPath, npyPath});
     ChannelSelection channels;
     if (const std::string channel = args.valueOr("channel", "mix"); channel != "mix") {
         channels.mode = ChannelMode::Pick;
@@ -228,6 +229,8 @@ int runAttention(const std::vector<std::string>& argv) {
         throw UsageError("expects one MATRIX.npy (see earmark-cli model attention --help)");
     if (!args.has("tokens")) throw UsageError("needs --tokens FILE: the input tokens the matrix attends to");
     const std::string path = args.positionals()[0];
+    refuseClobbering({{"--json", args.valueOr("json", "-")}, {"--timings", args.valueOr("timings", "-")}},
+                     {path, *args.value("tokens")});
     AttentionParams params;
     params.frame.hopSize = wholeNumber<int>(args, "hop", 1).value_or(params.frame.hopSize);
     params.frame.sampleRate = positive(args, "sample-rate").value_or(params.frame.sampleRate);

@@ -4,10 +4,22 @@
 #pragma once
 
 #include <string>
+#include <utility>
+#include <vector>
 
 namespace earmark::cli {
 
 // Throws earmark::Error naming the path when it cannot be written.
 void writeTextOutput(const std::string& path, const std::string& text);
+
+// Whether two paths name one regular file (existing or not yet); "-" and
+// devices are never the same file. For refusing `--out X --json X` and an
+// output that would replace an input.
+bool sameFile(const std::string& a, const std::string& b);
+
+// Throws UsageError when one of `outputs` (option name, path) names the same
+// file as another output or as one of `inputs`.
+void refuseClobbering(const std::vector<std::pair<std::string, std::string>>& outputs,
+                      const std::vector<std::string>& inputs = {});
 
 }  // namespace earmark::cli

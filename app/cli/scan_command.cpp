@@ -75,6 +75,8 @@ int runScan(const std::vector<std::string>& argv) {
     const auto json = args.value("json");
     if (json && *json == "-" && out == "-") throw UsageError("--out and --json cannot both be stdout");
     const auto session = args.value("session");
+    refuseClobbering({{"--out", out}, {"--json", json.value_or("-")}, {"--session", session.value_or("-")}},
+                     {args.positionals().front(), args.valueOr("rules", "-")});
 
     const auto listed = listScanInput(args.positionals().front());
     const auto items = selectShard(listed, shard);

@@ -22,26 +22,36 @@ std::string shellQuote(const std::string& s) {
     return q + "'";
 }
 
-}  // namespace
-
-CliResult runCli(const std::vector<std::string>& args) { return runCliAfter("", args); }
-
-CliResult runCliAfter(const std::string& shellPrefix, const std::vector<std::string>& args) {
+CliResult runShell(const std::string& shellPrefix, const std::vector<std::string>& args,
+                   const std::string& stdinPath, const std::string& stdoutPath) {
     TempDir dir;
     std::string cmd = shellPrefix;
     cmd.append(shellQuote(EARMARK_CLI_PATH));
     // Appended piece by piece: GCC 12 raises a false -Wrestrict on chained
     // temporaries of std::string here.
     for (const auto& a : args) cmd.append(" ").append(shellQuote(a));
-    cmd.append(" >").append(shellQuote(dir.file("out")));
+    cmd.append(" >").append(shellQuote(stdoutPath.empty() ? dir.file("out") : stdoutPath));
     cmd.append(" 2>").append(shellQuote(dir.file("err")));
-    cmd.append(" </dev/null");
+    cmd.append(" <").append(shellQuote(stdinPath));
     const int status = std::system(cmd.c_str());
     CliResult r;
     r.exitCode = WIFEXITED(status) ? WEXITSTATUS(status) : 128 + WTERMSIG(status);
     r.out = slurp(dir.file("out"));
     r.err = slurp(dir.file("err"));
     return r;
+}
+
+}  // namespace
+
+CliResult runCli(const std::vector<std::string>& args) { return runShell("", args, "/dev/null", ""); }
+
+CliResult runCliAfter(const std::string& shellPrefix, const std::vector<std::string>& args) {
+    return runShell(shellPrefix, args, "/dev/null", "");
+}
+
+CliResult runCliRedirected(const std::vector<std::string>& args, const std::string& stdinPath,
+                           const std::string& stdoutPath) {
+    return runShell("", args, stdinPath, stdoutPath);
 }
 
 void expectOneLineError(const CliResult& r, const std::string& part) {

@@ -17,6 +17,11 @@ CliResult runCli(const std::vector<std::string>& args);
 // size limit: "ulimit -f 16; ", or environment: "LD_PRELOAD=… ").
 CliResult runCliAfter(const std::string& shellPrefix, const std::vector<std::string>& args);
 
+// Same, with stdin read from `stdinPath` and, when `stdoutPath` is not empty,
+// stdout written there instead of captured (e.g. /dev/full).
+CliResult runCliRedirected(const std::vector<std::string>& args, const std::string& stdinPath,
+                           const std::string& stdoutPath = "");
+
 // The failure contract of every command: stderr is exactly one line, it
 // contains `part` (usually the file's path), and nothing crashed.
 void expectOneLineError(const CliResult& r, const std::string& part);

@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace earmark {
 namespace {
@@ -55,6 +56,13 @@ void AnalysisParams::validate(double fileRate) const {
     }
 }
 
+namespace {
+
+// BS.1770's K-weighting needs its shelf (≈ 1.7 kHz) below Nyquist.
+bool loudnessDefinedAt(double sampleRate) { return sampleRate >= kMinKWeightingRateHz; }
+
+}  // namespace
+
 PitchSummary summarisePitch(const PitchTrack& track) {
     PitchSummary s;
     std::vector<float> voiced;
@@ -71,21 +79,26 @@ PitchSummary summarisePitch(const PitchTrack& track) {
 }
 
 TakeAnalysis analyseFile(const std::string& path, const AnalysisParams& params, Progress progress) {
-    const AudioInfo header = probeAudio(path);
-    params.validate(header.sampleRate);
+    // One open, one pass: the file may be a pipe that can be read only once.
     std::optional<LoudnessMeter> loudness;
-    if (params.tracks.loudness) loudness.emplace(header.sampleRate, header.channels);
-    SampleStatsMeter stats(header.channels);
+    std::optional<SampleStatsMeter> stats;
+    auto onHeader = [&](const AudioInfo& header) {
+        params.validate(header.sampleRate);
+        if (params.tracks.loudness && loudnessDefinedAt(header.sampleRate))
+            loudness.emplace(header.sampleRate, header.channels);
+        stats.emplace(header.channels);
+    };
     auto observe = [&](const float* block, std::int64_t frames, int) {
         if (loudness) loudness->addInterleaved(block, frames);
-        stats.addInterleaved(block, frames);
+        stats->addInterleaved(block, frames);
     };
-    LoadedAudio loaded = loadAudio(path, params.channels, observe, progress.sub(0.0, 0.15));
+    LoadedAudio loaded = loadAudio(path, params.channels, onHeader, observe, progress.sub(0.0, 0.15));
     TakeAnalysis out;
     out.info = loaded.info;
     out.signal = std::move(loaded.signal);
-    out.sampleStats = stats.result();
+    out.sampleStats = stats->result();
     if (loudness) out.loudnessLufs = loudness->integratedLufs();
+    else if (params.tracks.loudness) out.loudnessLufs = std::numeric_limits<double>::quiet_NaN();
     analyseTracks(out, out.signal, params, progress.sub(0.15, 1.0));
     return out;
 }
@@ -102,9 +115,10 @@ TakeAnalysis analyseSignal(const Signal& signal, const AnalysisParams& params, P
     stats.addInterleaved(signal.samples.data(), static_cast<std::int64_t>(signal.size()));
     out.sampleStats = stats.result();
     if (params.tracks.loudness)
-        out.loudnessLufs = integratedLoudnessLufs(signal.samples.data(),
-                                                  static_cast<std::int64_t>(signal.size()),
-                                                  signal.sampleRate);
+        out.loudnessLufs = loudnessDefinedAt(signal.sampleRate)
+                               ? integratedLoudnessLufs(signal.samples.data(),
+                                                        static_cast<std::int64_t>(signal.size()), signal.sampleRate)
+                               : std::numeric_limits<double>::quiet_NaN();
     analyseTracks(out, signal, params, progress);
     return out;
 }

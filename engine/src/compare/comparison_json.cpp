@@ -1,5 +1,7 @@
 #include "earmark/compare/comparison_json.hpp"
 
+#include "io/json_text.hpp"
+
 #include <nlohmann/json.hpp>
 
 #include <cmath>
@@ -14,8 +16,7 @@ json number(double v) { return std::isfinite(v) ? json(std::round(v * 1e4) / 1e4
 json number(const std::optional<double>& v) { return v ? number(*v) : json(nullptr); }
 
 json sideJson(const TakeSide& s, const std::string& name) {
-    return {
-        {"file", name},
+    json side = {
         {"duration_s", number(s.durationS)},
         {"speech_start_s", number(s.speechStartS)},
         {"speech_end_s", number(s.speechEndS)},
@@ -24,6 +25,8 @@ json sideJson(const TakeSide& s, const std::string& name) {
         {"f0_median_hz", number(s.pitchSummary.medianHz)},
         {"f0_range_st", number(s.pitchSummary.rangeSemitones)},
     };
+    io_detail::putPath(side, "file", name);
+    return side;
 }
 
 json wordSide(const WordMeasures& m) {
@@ -80,7 +83,7 @@ std::string comparisonToJson(const TakeComparison& c, const ComparisonJsonNames&
         j["words"] = nullptr;
     }
     j["notes"] = c.notes;
-    return j.dump(2);
+    return j.dump(2, ' ', false, json::error_handler_t::replace);
 }
 
 }  // namespace earmark

@@ -1,5 +1,7 @@
 #include "earmark/export/analysis_json.hpp"
 
+#include "io/json_text.hpp"
+
 #include <nlohmann/json.hpp>
 
 #include <cmath>
@@ -24,7 +26,7 @@ json optionalNumber(const std::optional<double>& v, double scale) {
 std::string analysisToJson(const TakeAnalysis& a, const AnalysisParams& params,
                            const AnalysisJsonOptions& options) {
     json j;
-    j["file"] = a.info.path;
+    io_detail::putPath(j, "file", a.info.path);
     j["format"] = a.info.format;
     j["duration_s"] = rounded(a.info.durationSeconds(), 1e6);
     j["sample_rate"] = a.info.sampleRate;
@@ -80,7 +82,7 @@ std::string analysisToJson(const TakeAnalysis& a, const AnalysisParams& params,
                     {"fmin_hz", params.mel.fminHz}, {"fmax_hz", params.mel.fmaxHz},
                     {"scale", params.mel.scale == MelScale::Htk ? "htk" : "slaney"}};
     }
-    return j.dump(options.indent);
+    return j.dump(options.indent, ' ', false, json::error_handler_t::replace);
 }
 
 }  // namespace earmark

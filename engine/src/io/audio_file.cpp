@@ -4,6 +4,7 @@
 
 #include <sndfile.h>
 
+#include <algorithm>
 #include <cerrno>
 #include <cmath>
 #include <cstring>
@@ -18,6 +19,7 @@ namespace {
 namespace fs = std::filesystem;
 
 constexpr std::int64_t kBlockFrames = 1 << 16;
+constexpr std::int64_t kReserveFrames = std::int64_t{1} << 26;  // 23 min at 48 kHz
 
 struct SndfileCloser {
     void operator()(SNDFILE* f) const { sf_close(f); }
@@ -29,6 +31,9 @@ using SndfilePtr = std::unique_ptr<SNDFILE, SndfileCloser>;
     std::error_code ec;
     if (!fs::exists(path, ec)) throw InputError(path, "file not found");
     if (fs::is_directory(path, ec)) throw InputError(path, "is a folder, not an audio file");
+    // A pipe or device was opened once already; opening it again would wait for a writer or eat its data.
+    if (!fs::is_regular_file(path, ec))
+        throw InputError(path, std::string("cannot be read as audio: ") + sf_error_number(sfError));
     {
         std::ifstream probe(path, std::ios::binary);
         if (!probe) throw InputError(path, std::string("cannot be opened: ") + std::strerror(errno));
@@ -85,8 +90,14 @@ AudioInfo probeAudio(const std::string& path) {
 
 LoadedAudio loadAudio(const std::string& path, const ChannelSelection& selection,
                       const AudioBlockObserver& observer, Progress progress) {
+    return loadAudio(path, selection, AudioHeaderObserver{}, observer, progress);
+}
+
+LoadedAudio loadAudio(const std::string& path, const ChannelSelection& selection, const AudioHeaderObserver& onHeader,
+                      const AudioBlockObserver& observer, Progress progress) {
     LoadedAudio out;
     SndfilePtr file = openForRead(path, out.info);
+    if (onHeader) onHeader(out.info);
     const int channels = out.info.channels;
     if (selection.mode == ChannelMode::Pick &&
         (selection.channel < 0 || selection.channel >= channels)) {
@@ -96,7 +107,8 @@ LoadedAudio loadAudio(const std::string& path, const ChannelSelection& selection
     }
 
     out.signal.sampleRate = out.info.sampleRate;
-    out.signal.samples.reserve(static_cast<std::size_t>(out.info.frames));
+    // A pipe's header may declare no length (SF_COUNT_MAX): reserve what is plausible, grow beyond.
+    out.signal.samples.reserve(static_cast<std::size_t>(std::min(out.info.frames, kReserveFrames)));
     std::vector<float> block(static_cast<std::size_t>(kBlockFrames * channels));
     std::int64_t done = 0;
     const float mixGain = 1.0f / static_cast<float>(channels);

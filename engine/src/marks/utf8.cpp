@@ -43,4 +43,15 @@ std::optional<std::size_t> firstInvalidUtf8(std::string_view text) {
     return std::nullopt;
 }
 
+std::string validUtf8(std::string_view text) {
+    std::string out;
+    while (auto bad = firstInvalidUtf8(text)) {
+        out.append(text.substr(0, *bad));
+        out.append("\xEF\xBF\xBD");
+        text.remove_prefix(*bad + 1);
+    }
+    out.append(text);
+    return out;
+}
+
 }  // namespace earmark

@@ -2,6 +2,8 @@
 
 #include "array2d.hpp"
 #include "earmark/model/array_layout.hpp"
+#include "earmark/io/text_file.hpp"
+#include "io/json_text.hpp"
 
 #include <nlohmann/json.hpp>
 
@@ -47,21 +49,12 @@ AttentionMatrix readAttentionNpy(const std::string& path, int tokenCount, Attent
 }
 
 std::vector<std::string> readTokenList(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, std::string("cannot be read: ") + std::strerror(errno));
-    std::ostringstream buffer;
-    buffer << in.rdbuf();
-    std::string text = buffer.str();
-    if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.erase(0, 3);  // a byte-order mark is not a token
+    const std::string text = withoutByteOrderMark(readTextFile(path));
     std::vector<std::string> tokens;
     const auto firstChar = text.find_first_not_of(" \t\r\n");
     if (firstChar != std::string::npos && text[firstChar] == '[') {
-        nlohmann::json j;
-        try {
-            j = nlohmann::json::parse(text);
-        } catch (const nlohmann::json::parse_error& e) {
-            throw InputError(path, std::string("is not valid JSON: ") + e.what());
-        }
+        const auto j = io_detail::parseJsonText<nlohmann::json>(text, path);
+        if (!j.is_array()) throw InputError(path, "is not a JSON list of tokens");
         for (std::size_t i = 0; i < j.size(); ++i) {
             if (!j[i].is_string()) throw InputError(path, "token " + std::to_string(i) + " is not a string");
             tokens.push_back(j[i].get<std::string>());

@@ -1,6 +1,8 @@
 #include "earmark/model/mel_settings.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/text_file.hpp"
+#include "io/json_text.hpp"
 
 #include <nlohmann/json.hpp>
 
@@ -206,14 +208,7 @@ ResolvedMelSettings resolveMelSettings(const MelSettingsGiven& o, const MelSetti
 }
 
 MelSidecar readMelSidecar(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, std::string("cannot be read: ") + std::strerror(errno));
-    json j;
-    try {
-        j = json::parse(in);
-    } catch (const json::parse_error& e) {
-        throw InputError(path, std::string("is not valid JSON: ") + e.what());
-    }
+    const json j = io_detail::parseJsonText<json>(readTextFile(path), path);
     if (!j.is_object()) throw InputError(path, "is not a JSON object of mel settings");
     MelSidecar out;
     MelSettingsGiven& g = out.settings;

@@ -1,5 +1,7 @@
 #include "earmark/model/model_json.hpp"
 
+#include "io/json_text.hpp"
+
 #include <nlohmann/json.hpp>
 
 #include <cmath>
@@ -51,10 +53,9 @@ std::string melDifferenceToJson(const PredictedMel& p, const MelDifference& d, c
         });
     json frames = json::array();
     for (float v : d.frameMeanAbsDb) frames.push_back(rounded(v, 100));
-    const json j = {
+    json j = {
         {"prediction",
          {
-             {"file", predictionPath},
              {"dtype", p.dtype},
              {"layout", melLayoutName(p.layout)},
              {"layout_from", p.layoutFrom},
@@ -63,7 +64,6 @@ std::string melDifferenceToJson(const PredictedMel& p, const MelDifference& d, c
              {"settings", settingsJson(p.settings)},
              {"assumed", p.assumed},
          }},
-        {"audio", audioPath},
         {"difference",
          {
              {"units", "dB (predicted minus computed)"},
@@ -81,7 +81,10 @@ std::string melDifferenceToJson(const PredictedMel& p, const MelDifference& d, c
          }},
         {"warnings", d.warnings},
     };
-    return j.dump(2);
+    io_detail::putPath(j["prediction"], "file", predictionPath);
+    if (p.sidecarPath) io_detail::putPath(j["prediction"], "sidecar", *p.sidecarPath);
+    io_detail::putPath(j, "audio", audioPath);
+    return j.dump(2, ' ', false, json::error_handler_t::replace);
 }
 
 std::string attentionToJson(const AttentionAlignment& a, const std::vector<std::string>& labels,
@@ -110,8 +113,7 @@ std::string attentionToJson(const AttentionAlignment& a, const std::vector<std::
                           {"last_token", e.lastToken},
                           {"tokens", text}});
     }
-    const json j = {
-        {"matrix", matrixPath},
+    json j = {
         {"frames", a.argmax.size()},
         {"tokens_count", labels.size()},
         {"hop_size", params.frame.hopSize},
@@ -122,7 +124,8 @@ std::string attentionToJson(const AttentionAlignment& a, const std::vector<std::
         {"faults", faults},
         {"argmax", a.argmax},
     };
-    return j.dump(2);
+    io_detail::putPath(j, "matrix", matrixPath);
+    return j.dump(2, ' ', false, json::error_handler_t::replace);
 }
 
 }  // namespace earmark

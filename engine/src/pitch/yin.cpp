@@ -113,6 +113,9 @@ std::vector<PitchCandidates> firstPass(std::span<const float> x, std::int64_t fr
         auto& c = out[static_cast<std::size_t>(t)];
         c.dips[0] = pick;
         c.count = 1 + deepestDips(d, dn, g.minLag, g.maxLag, pick.lag, std::span(c.dips).subspan(1));
+        // F0 above the range: every dip in range is a subharmonic, none is an answer.
+        if (periodicBelowLag(dn, g.minLag, threshold))
+            for (int k = 0; k < c.count; ++k) c.dips[static_cast<std::size_t>(k)].aperiodicity = 1.0f;
     };
 
     const double half = 0.5 * g.span;
@@ -211,7 +214,8 @@ PitchTrack analysePitch(const Signal& signal, const PitchParams& params, Progres
             const std::int64_t first = std::llround(centre) - refineReach;
             const auto region = samplesAt(x.samples, first, refineScratch);
             const float lag = refineLagCentred(region, centre - static_cast<double>(first), g.window, dip.lag);
-            track.f0Hz[i] = static_cast<float>(rate / lag);
+            // Interpolation at the range's edge may step just past it; F0 stays within the range.
+            track.f0Hz[i] = static_cast<float>(std::clamp(rate / lag, params.minF0Hz, params.maxF0Hz));
         }
     }
     progress.report(1.0);

@@ -74,6 +74,18 @@ void YinFrame::compute(std::span<const float> frame, std::span<float> difference
     auto time = fft_.timeBuffer();
     auto spectrum = fft_.spectrumBuffer();
 
+    // d(τ) does not change when a constant is added to the frame, but the
+    // FFT route (energies minus 2·r(τ)) loses it to rounding under a large
+    // offset: pure DC came out as float noise with chance dips. The frame's
+    // mean is taken out first; the energy reported stays the raw frame's.
+    sumOfSquares_ = squaresSum(frame.data(), g.span);
+    double sum = 0.0;
+    for (float v : frame) sum += v;
+    const auto mean = static_cast<float>(sum / g.span);
+    centred_.resize(frame.size());
+    for (std::size_t j = 0; j < frame.size(); ++j) centred_[j] = frame[j] - mean;
+    frame = centred_;
+
     // Y = FFT(whole span), kept aside.
     std::copy(frame.begin(), frame.end(), time.begin());
     std::fill(time.begin() + g.span, time.end(), 0.0f);
@@ -100,7 +112,6 @@ void YinFrame::compute(std::span<const float> frame, std::span<float> difference
     // shifted term Σ_{j<W} x_{j+τ}² slides by one sample per lag, in double so
     // the running update cannot drift.
     const double head = squaresSum(frame.data(), w);
-    sumOfSquares_ = head + squaresSum(frame.data() + w, g.span - w);
     const double scale = 1.0 / n;
     double shifted = head;
     double cumulative = 0.0;
@@ -179,6 +190,16 @@ int deepestDips(std::span<const float> difference, std::span<const float> normal
     }
     for (int k = 0; k < kept; ++k) out[static_cast<std::size_t>(k)] = interpolateDip(difference, normalised, lagsKept[k]);
     return kept;
+}
+
+bool periodicBelowLag(std::span<const float> normalised, int minLag, float threshold) {
+    for (int tau = 2; tau < minLag && tau + 1 < static_cast<int>(normalised.size()); ++tau) {
+        const float v = normalised[static_cast<std::size_t>(tau)];
+        if (v < threshold && v < normalised[static_cast<std::size_t>(tau) - 1] &&
+            v <= normalised[static_cast<std::size_t>(tau) + 1])
+            return true;
+    }
+    return false;
 }
 
 namespace {

@@ -1,10 +1,14 @@
 #include "earmark/prosody/rules.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/text_file.hpp"
+#include "io/json_text.hpp"
 
 #include <nlohmann/json.hpp>
 
 #include <cmath>
+#include <cstdint>
+#include <limits>
 #include <fstream>
 #include <sstream>
 #include <variant>
@@ -115,6 +119,11 @@ void readField(const Field& f, const Json& v, const std::string& path) {
                 *p = v.get<double>();
             } else {
                 if (!v.is_number_integer()) throw ParamError(path, "expects a whole number");
+                using Limits = std::numeric_limits<T>;
+                const bool fits = v.is_number_unsigned()
+                                      ? v.get<std::uint64_t>() <= static_cast<std::uint64_t>(Limits::max())
+                                      : v.get<std::int64_t>() >= Limits::min() && v.get<std::int64_t>() <= Limits::max();
+                if (!fits) throw ParamError(path, "is out of range for a whole number");
                 *p = v.get<T>();
             }
         },
@@ -229,9 +238,10 @@ void ScanRules::validate() const {
 ScanRules parseRules(const std::string& json, const std::string& origin) {
     Json doc;
     try {
-        doc = Json::parse(json);
-    } catch (const Json::parse_error& e) {
-        throw InputError(origin, std::string("not valid JSON: ") + e.what());
+        doc = io_detail::parseJsonText<Json>(json, origin);
+    } catch (const InputError& e) {
+        // A rules file is a setting: bad content is a bad setting (exit 2), named by its file.
+        throw ParamError(origin, e.problem());
     }
     if (!doc.is_object()) throw ParamError("rules", "the document must be a JSON object");
     ScanRules rules;
@@ -256,11 +266,7 @@ ScanRules parseRules(const std::string& json, const std::string& origin) {
 }
 
 ScanRules loadRules(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, "cannot be read");
-    std::ostringstream text;
-    text << in.rdbuf();
-    return parseRules(text.str(), path);
+    return parseRules(readTextFile(path), path);
 }
 
 std::string rulesToJson(const ScanRules& rules) {

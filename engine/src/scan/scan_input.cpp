@@ -1,6 +1,7 @@
 #include "earmark/scan/scan_input.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/text_file.hpp"
 #include "earmark/store/take_list.hpp"  // parseCsv (RFC 4180)
 
 #include <algorithm>
@@ -31,24 +32,29 @@ std::vector<ScanItem> listFolder(const fs::path& root) {
         files.emplace_back(it->path().lexically_relative(root).generic_string(), it->path());
     }
     std::sort(files.begin(), files.end());
+    // x.wav and x.flac side by side would both be take x: such files keep
+    // their extension in the id, so every id stays unique.
+    std::map<std::string, int> stems;
+    for (const auto& f : files) ++stems[fs::path(f.first).replace_extension().generic_string()];
     std::vector<ScanItem> items;
     for (const auto& [rel, full] : files) {
         ScanItem item;
         item.index = items.size();
         item.id = fs::path(rel).replace_extension().generic_string();
+        if (stems[item.id] > 1) item.id = rel;
         item.audioPath = full.string();
         items.push_back(std::move(item));
     }
+    std::map<std::string, const ScanItem*> ids;
+    for (const auto& item : items)
+        if (auto [it, fresh] = ids.emplace(item.id, &item); !fresh)
+            throw InputError(item.audioPath, "would be take '" + item.id + "' like " + it->second->audioPath +
+                                                 "; rename one of them");
     return items;
 }
 
 std::vector<ScanItem> listManifest(const fs::path& manifest) {
-    std::ifstream in(manifest, std::ios::binary);
-    if (!in) throw InputError(manifest.string(), "cannot be read");
-    std::ostringstream text;
-    text << in.rdbuf();
-    std::string body = text.str();
-    if (body.rfind("\xEF\xBB\xBF", 0) == 0) body.erase(0, 3);  // UTF-8 byte-order mark
+    const std::string body = withoutByteOrderMark(readTextFile(manifest.string()));
     auto records = parseCsv(body, manifest.string());
     std::erase_if(records, [](const std::vector<std::string>& r) { return r.size() == 1 && r[0].empty(); });
     if (records.empty()) throw InputError(manifest.string(), "is empty (expected a header with id,audio)");

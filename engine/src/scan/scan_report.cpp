@@ -1,6 +1,8 @@
 #include "earmark/scan/scan_report.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/text_file.hpp"
+#include "io/json_text.hpp"
 #include "earmark/export/defect_list.hpp"  // csvRecord (RFC 4180)
 #include "earmark/store/take_list.hpp"     // parseCsv (RFC 4180)
 
@@ -24,9 +26,15 @@ namespace {
 using Json = nlohmann::ordered_json;
 using Opt = std::optional<double>;
 
+// Figures merge reads back (loudness, duration, per-take score) are written
+// exactly — the shortest text that reads back as the same double — so merged
+// shards decide and score like one run.
+constexpr int kExact = -1;
+
 std::string fixed(double v, int decimals) {
     if (!std::isfinite(v)) return "";
     char buf[64];
+    if (decimals == kExact) return std::string(buf, std::to_chars(buf, buf + sizeof buf, v).ptr);
     std::snprintf(buf, sizeof buf, "%.*f", decimals, v);
     return buf;
 }
@@ -62,7 +70,7 @@ struct Measure {
 
 const std::vector<Measure>& measures() {
     static const std::vector<Measure> list = {
-        EARMARK_PLAIN("duration_s", durationS, 3),
+        EARMARK_PLAIN("duration_s", durationS, kExact),
         EARMARK_PLAIN("speech_s", speechS, 3),
         EARMARK_PLAIN("leading_silence_s", leadingSilenceS, 3),
         EARMARK_PLAIN("trailing_silence_s", trailingSilenceS, 3),
@@ -80,7 +88,7 @@ const std::vector<Measure>& measures() {
         EARMARK_PLAIN("pause_total_s", pauseTotalS, 3),
         EARMARK_PLAIN("pause_longest_s", longestPauseS, 3),
         EARMARK_PLAIN("speech_level_dbfs", speechLevelDb, 2),
-        EARMARK_OPTIONAL("loudness_lufs", level.loudnessLufs, 2),
+        EARMARK_OPTIONAL("loudness_lufs", level.loudnessLufs, kExact),
         Measure{"peak_dbfs", [](const TakeMeasures& m) -> Opt { return m.level.peakDbfs; },
                 [](TakeMeasures& m, Opt v) { m.level.peakDbfs = v.value_or(-INFINITY); }, 2},
         EARMARK_PLAIN("clipped_samples", level.clippedSamples, 0),
@@ -123,13 +131,8 @@ const std::vector<std::string>& tailColumns() {
     return c;
 }
 
-std::string readFile(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, "cannot be read");
-    std::ostringstream text;
-    text << in.rdbuf();
-    return text.str();
-}
+// Positions beyond this cannot come from a real listing; checked before any cast.
+constexpr double kMaxPosition = 1e15;
 
 Json numberOrNull(double v) { return std::isfinite(v) ? Json(v) : Json(nullptr); }
 double numberFrom(const Json& j) { return j.is_number() ? j.get<double>() : NAN; }
@@ -156,7 +159,8 @@ ScanReport readCsvReport(const std::string& text, const std::string& path) {
         row.status = cell("status");
         row.failed = row.status.rfind("error", 0) == 0;
         const auto position = parseNumber(cell("position"), where + " position");
-        if (!position || *position < 1) throw InputError(where, "position must be a number >= 1");
+        if (!position || !(*position >= 1 && *position <= kMaxPosition) || std::floor(*position) != *position)
+            throw InputError(where, "position must be a whole number >= 1");
         row.index = static_cast<std::size_t>(*position) - 1;
         row.takeScore = parseNumber(cell("score_take"), where + " score_take").value_or(0.0);
         if (cell("partial") == "yes") report.partial = true;
@@ -189,23 +193,24 @@ ScanReport readCsvReport(const std::string& text, const std::string& path) {
 }
 
 ScanReport readJsonReport(const std::string& text, const std::string& path) {
-    Json doc;
-    try {
-        doc = Json::parse(text);
-    } catch (const Json::exception& e) {
-        throw InputError(path, std::string("not valid JSON: ") + e.what());
-    }
+    const Json doc = io_detail::parseJsonText<Json>(text, path);
     if (!doc.is_object() || doc.value("format", "") != "earmark-scan" || !doc.contains("takes"))
         throw InputError(path, "is not an earmark scan JSON (no \"format\": \"earmark-scan\" with \"takes\")");
     ScanReport report;
     try {
         report.partial = doc.value("partial", false);
-        report.takesListed = doc.value("takes_listed", std::size_t{0});
+        if (const auto listed = doc.find("takes_listed"); listed != doc.end() && listed->is_number_unsigned())
+            report.takesListed = static_cast<std::size_t>(listed->get<std::uint64_t>());
         for (const auto& t : doc.at("takes")) {
             ScanRow row;
-            row.index = t.at("position").get<std::size_t>() - 1;
-            row.id = t.at("id").get<std::string>();
-            row.file = t.at("file").get<std::string>();
+            const Json& position = t.at("position");
+            if (!position.is_number_unsigned() || position.get<std::uint64_t>() < 1 ||
+                position.get<std::uint64_t>() > kMaxPosition)
+                throw InputError(path, "take " + std::to_string(report.rows.size() + 1) +
+                                           ": position must be a whole number >= 1");
+            row.index = static_cast<std::size_t>(position.get<std::uint64_t>()) - 1;
+            row.id = io_detail::pathFromJson(t, "id", path);
+            row.file = io_detail::pathFromJson(t, "file", path);
             row.status = t.at("status").get<std::string>();
             row.failed = row.status.rfind("error", 0) == 0;
             row.takeScore = t.at("score_take").get<double>();
@@ -303,7 +308,7 @@ std::string reportToCsv(const ScanReport& report) {
         rec.push_back(row.failed ? "" : fixed(row.score, 3));
         rec.push_back(joined(row.suspects, false));
         rec.push_back(joined(row.suspects, true));
-        rec.push_back(row.failed ? "" : fixed(row.takeScore, 3));
+        rec.push_back(row.failed ? "" : fixed(row.takeScore, kExact));
         rec.push_back(std::to_string(row.index + 1));
         rec.push_back(report.partial ? "yes" : "no");
         out += csvRecord(rec);
@@ -326,8 +331,8 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
         Json t;
         t["rank"] = ++rank;
         t["position"] = row.index + 1;
-        t["id"] = row.id;
-        t["file"] = row.file;
+        io_detail::putPath(t, "id", row.id);
+        io_detail::putPath(t, "file", row.file);
         t["status"] = row.status;
         t["score"] = row.score;
         t["score_take"] = row.takeScore;
@@ -360,11 +365,11 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
         takes.push_back(std::move(t));
     }
     doc["takes"] = std::move(takes);
-    return doc.dump(2);
+    return doc.dump(2, ' ', false, Json::error_handler_t::replace);
 }
 
 ScanReport readReport(const std::string& path) {
-    const std::string text = readFile(path);
+    const std::string text = readTextFile(path);
     const auto first = text.find_first_not_of(" \t\r\n");
     if (first != std::string::npos && text[first] == '{') return readJsonReport(text, path);
     return readCsvReport(text, path);

@@ -1,5 +1,6 @@
 #include "earmark/scan/scan_session.hpp"
 
+#include "earmark/marks/utf8.hpp"
 #include "earmark/store/session.hpp"
 
 #include <cmath>
@@ -15,6 +16,18 @@ std::string canonical(const std::string& path) {
     std::error_code ec;
     auto p = fs::weakly_canonical(fs::absolute(path), ec);
     return ec ? path : p.string();
+}
+
+// The session keeps the audio path as its bytes; the line id is one line of
+// UTF-8 text, so bytes of another encoding and control characters (a file
+// name may hold a line break) are shown as U+FFFD.
+std::string lineIdOf(const std::string& id) {
+    std::string out;
+    for (char c : validUtf8(id)) {
+        const auto u = static_cast<unsigned char>(c);
+        out += u < 0x20 || u == 0x7F ? std::string("\xEF\xBF\xBD") : std::string(1, c);
+    }
+    return out;
 }
 
 Suspect toStored(const TakeSuspect& s, double durationS) {
@@ -47,7 +60,7 @@ SessionWriteSummary fillScanSession(Session& session, const ScanReport& report, 
                 continue;
             }
             if (byPath.count(canonical(row.file))) continue;
-            fresh.push_back({row.file, row.id, textOf[row.id], ""});
+            fresh.push_back({row.file, lineIdOf(row.id), textOf[row.id], ""});
         }
         const auto ids = session.addTakes(fresh);
         summary.added = static_cast<int>(ids.size());

@@ -1,6 +1,7 @@
 #include "earmark/store/take_list.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/io/text_file.hpp"
 #include "earmark/marks/utf8.hpp"
 
 #include <filesystem>
@@ -67,15 +68,7 @@ std::vector<std::vector<std::string>> parseCsv(std::string_view text, const std:
 }
 
 std::vector<NewTake> readTakeList(const std::string& csvPath, const std::string& build) {
-    std::ifstream in(csvPath, std::ios::binary);
-    if (!in) {
-        std::error_code ec;
-        throw InputError(csvPath, std::filesystem::exists(csvPath, ec) ? "cannot be read" : "file not found");
-    }
-    std::stringstream buffer;
-    buffer << in.rdbuf();
-    std::string text = buffer.str();
-    if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.erase(0, 3);
+    const std::string text = withoutByteOrderMark(readTextFile(csvPath));
     if (auto bad = firstInvalidUtf8(text))
         throw InputError(csvPath, "is not UTF-8 text (bad byte at offset " + std::to_string(*bad) + ")");
 

@@ -12,7 +12,8 @@ namespace earmark::tiers_detail {
 using Json = nlohmann::ordered_json;
 
 // Parses `text` (a leading byte-order mark is skipped). Throws
-// InputError(source, "line L, column C: not valid JSON"), and
+// InputError(source, "line L, column C: not valid JSON"), InputError(source,
+// "holds a number too large to read: 1e400"), and
 // InputError(source, notAnObject) when the document is not a JSON object.
 Json parseJsonObject(std::string_view text, const std::string& source, const std::string& notAnObject);
 

@@ -5,6 +5,8 @@
 #include "earmark/tiers/timings_json.hpp"
 #include "earmark/tiers/timings_vtt.hpp"
 #include "earmark/tiers/token_durations.hpp"
+#include "earmark/io/text_file.hpp"
+#include "io/json_text.hpp"
 #include "text_util.hpp"
 
 #include <nlohmann/json.hpp>
@@ -28,10 +30,10 @@ LoadedTimings loadTimings(const std::string& path, const TimingsReadOptions& opt
                           std::optional<TimingsFormat> format) {
     if (!format) format = timingsFormatFromPath(path);
     if (!format) throw InputError(path, "unknown timings file type (expected .json, .csv or .vtt)");
-    const std::string text = tiers_detail::readTextFile(path);
+    const std::string text = readTextFile(path);
     if (*format == TimingsFormat::EarmarkJson) {
         // The durations form is JSON too; tell them apart by its keys.
-        const auto doc = nlohmann::json::parse(text, nullptr, false);
+        const auto doc = io_detail::parseJsonText<nlohmann::json>(tiers_detail::stripBom(text), path);
         if (doc.is_object() && doc.contains("tokens") && doc.contains("hop_size"))
             format = TimingsFormat::TokenDurations;
     }

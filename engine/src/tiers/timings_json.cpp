@@ -43,7 +43,7 @@ LoadedTimings parseTimingsJson(std::string_view text, const std::string& source,
     const Json doc = parseJsonObject(text, source, "expected a JSON object with tiers such as \"words\"");
 
     LoadedTimings out;
-    if (const auto v = doc.find("version"); v != doc.end() && !(v->is_number_integer() && v->get<int>() == 1))
+    if (const auto v = doc.find("version"); v != doc.end() && !(v->is_number_integer() && v->get<long long>() == 1))
         throw InputError(source, "'version' is not 1 (this reader knows version 1)");
     if (const auto d = doc.find("duration"); d != doc.end() && !d->is_null()) {
         if (!d->is_number() || d->get<double>() < 0)

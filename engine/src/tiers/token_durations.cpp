@@ -8,6 +8,7 @@
 #include <nlohmann/json.hpp>
 
 #include <cmath>
+#include <limits>
 
 namespace earmark {
 namespace {
@@ -55,6 +56,9 @@ LoadedTimings parseTokenDurations(std::string_view text, const std::string& sour
         if (frames == tok.end() || !frames->is_number_integer() || frames->get<long long>() < 0)
             throw InputError(source, row + ": 'frames' is missing or not a whole number >= 0");
         const long long n = frames->get<long long>();
+        if (n > std::numeric_limits<long long>::max() - frame)
+            throw InputError(source, row + ": the frames add up past " +
+                                         std::to_string(std::numeric_limits<long long>::max()));
         const std::string label = txt->get<std::string>();
         if (n == 0) {
             if (!label.empty()) out.warnings.push_back(row + ": '" + label + "' lasts 0 frames and is left out");

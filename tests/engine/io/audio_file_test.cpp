@@ -2,6 +2,7 @@
 // bad input named in the foundation issue. Files are written with libsndfile
 // itself (the reference library) in each format, then read back.
 #include "earmark/core/error.hpp"
+#include "earmark/analysis/take_analysis.hpp"
 #include "earmark/io/audio_file.hpp"
 #include "support/temp_dir.hpp"
 #include "support/test_signals.hpp"
@@ -9,10 +10,12 @@
 #include <gmock/gmock.h>
 #include <gtest/gtest.h>
 #include <sndfile.h>
+#include <sys/stat.h>
 
 #include <cmath>
 #include <fstream>
 #include <limits>
+#include <thread>
 
 namespace earmark {
 namespace {
@@ -240,6 +243,44 @@ TEST(AudioFile, ReportsProgressAndCancels) {
     EXPECT_GT(calls, 3);
     EXPECT_DOUBLE_EQ(last, 1.0);
     EXPECT_THROW(loadAudio(path, {}, {}, Progress([](double) { return false; })), Cancelled);
+}
+
+}  // namespace
+}  // namespace earmark
+
+namespace earmark {
+namespace {
+
+// A pipe can be read once: the header and the samples come from one open
+// (a second open would wait for another writer, or find the header gone).
+TEST(AudioFile, ReadsAPipeInOnePass) {
+    test::TempDir dir;
+    const std::string wav = dir.file("tone.wav");
+    writeWav(wav, test::sine(220.0, 0.5, 16000.0, 0.5));
+    const std::string bytes = test::slurp(wav);
+    const std::string fifo = dir.file("pipe.wav");
+    ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
+    std::thread writer([&] { std::ofstream(fifo, std::ios::binary) << bytes; });
+    AudioInfo seen;
+    const LoadedAudio a = loadAudio(fifo, {}, [&](const AudioInfo& h) { seen = h; }, {}, {});
+    writer.join();
+    EXPECT_EQ(seen.sampleRate, 16000.0);
+    EXPECT_EQ(a.signal.size(), 8000u);
+}
+
+TEST(AudioFile, AnalysisOpensAPipeOnce) {
+    test::TempDir dir;
+    const std::string wav = dir.file("tone.wav");
+    writeWav(wav, test::sine(220.0, 1.0, 16000.0, 0.5));
+    const std::string bytes = test::slurp(wav);
+    const std::string fifo = dir.file("pipe.wav");
+    ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
+    std::thread writer([&] { std::ofstream(fifo, std::ios::binary) << bytes; });
+    const TakeAnalysis a = analyseFile(fifo);
+    writer.join();
+    EXPECT_EQ(a.info.frames, 16000);
+    ASSERT_TRUE(a.pitchSummary.medianHz);
+    EXPECT_NEAR(*a.pitchSummary.medianHz, 220.0, 1.0);  // the tone's own frequency
 }
 
 }  // namespace

@@ -56,8 +56,22 @@ TEST(Rules, ErrorsNameTheKey) {
     EXPECT_EQ(paramErrorSubject(R"({"dragged": {"min_syllables_per_s": 9}})"), "rules.dragged.min_syllables_per_s");
     EXPECT_EQ(paramErrorSubject(R"({"rushed": 3})"), "rules.rushed");
     EXPECT_EQ(paramErrorSubject(R"([1, 2])"), "rules");
-    EXPECT_THROW(parseRules("{not json"), InputError);
+    // Bad content of a rules file is a bad setting (docs/scan.md: exit 2), named by the file.
+    EXPECT_EQ(paramErrorSubject("{not json"), "rules");
     EXPECT_THROW(loadRules("/nonexistent/rules.json"), InputError);
+}
+
+TEST(Rules, NumbersBeyondTheirTypeAreRefusedNotWrapped) {
+    try {
+        parseRules(R"({"flat": {"max_range_st": 1e400}})", "big.json");
+        FAIL() << "expected ParamError";
+    } catch (const ParamError& e) {
+        EXPECT_EQ(e.subject(), "big.json");
+        EXPECT_NE(std::string(e.problem()).find("too large"), std::string::npos) << e.what();
+    }
+    // 2^32 + 4 read as an int was 4: a silent wrong threshold.
+    EXPECT_EQ(paramErrorSubject(R"({"flat": {"min_words": 4294967300}})"), "rules.flat.min_words");
+    EXPECT_EQ(paramErrorSubject(R"({"flat": {"min_words": 18446744073709551615}})"), "rules.flat.min_words");
 }
 
 }  // namespace

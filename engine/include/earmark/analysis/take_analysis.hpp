@@ -52,7 +52,9 @@ struct TakeAnalysis {
     PitchSummary pitchSummary;
     std::optional<EnergyTrack> energy;
     std::optional<Spectrogram> mel;
-    std::optional<double> loudnessLufs;  // −inf when every block is gated out
+    // −inf when every block is gated out; NaN (undefined) when the sample rate
+    // is below kMinKWeightingRateHz (3364 Hz), where BS.1770's filter does not exist.
+    std::optional<double> loudnessLufs;
     SampleStats sampleStats;             // over all channels
 };
 

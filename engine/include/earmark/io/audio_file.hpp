@@ -42,7 +42,13 @@ struct ChannelSelection {
 using AudioBlockObserver =
     std::function<void(const float* interleaved, std::int64_t frames, int channels)>;
 
-// Reads the header only. Throws InputError.
+// Called once when the header has been read, before the first block: lets a
+// caller set up meters (or refuse the file, by throwing) without opening the
+// file a second time — a pipe or /dev/stdin can be read only once.
+using AudioHeaderObserver = std::function<void(const AudioInfo& header)>;
+
+// Reads the header only (opens the file; use the loadAudio overload with an
+// AudioHeaderObserver for a pipe). Throws InputError.
 AudioInfo probeAudio(const std::string& path);
 
 struct LoadedAudio {
@@ -55,6 +61,8 @@ struct LoadedAudio {
 // range, Cancelled if `progress` asks to stop.
 LoadedAudio loadAudio(const std::string& path, const ChannelSelection& selection = {},
                       const AudioBlockObserver& observer = {}, Progress progress = {});
+LoadedAudio loadAudio(const std::string& path, const ChannelSelection& selection, const AudioHeaderObserver& onHeader,
+                      const AudioBlockObserver& observer, Progress progress);
 
 // Writes a mono signal as a 16-bit PCM or 32-bit float WAV (for clips, tests,
 // the demo). Throws Error naming the path if it cannot be written.

@@ -5,6 +5,7 @@
 
 #include <cstddef>
 #include <optional>
+#include <string>
 #include <string_view>
 
 namespace earmark {
@@ -15,5 +16,9 @@ namespace earmark {
 std::optional<std::size_t> firstInvalidUtf8(std::string_view text);
 
 inline bool isValidUtf8(std::string_view text) { return !firstInvalidUtf8(text).has_value(); }
+
+// `text` with every byte that breaks UTF-8 replaced by U+FFFD, for showing a
+// name (a file name in another encoding) where only UTF-8 may go.
+std::string validUtf8(std::string_view text);
 
 }  // namespace earmark

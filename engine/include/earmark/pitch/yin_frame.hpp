@@ -61,6 +61,7 @@ private:
     YinGeometry geometry_;
     RealFft fft_;
     std::vector<std::complex<float>> frameSpectrum_;
+    std::vector<float> centred_;  // the frame minus its mean
     double sumOfSquares_ = 0.0;
 };
 
@@ -81,6 +82,12 @@ YinDip pickDip(std::span<const float> difference, std::span<const float> normali
 // Dips within 1.5 lags of `exclude` (an already chosen dip) are skipped.
 int deepestDips(std::span<const float> difference, std::span<const float> normalised, int lo, int hi,
                 float exclude, std::span<YinDip> out);
+
+// Whether the frame repeats at a lag shorter than the search range: a local
+// minimum of d′ in [2, minLag) below `threshold` — its F0 lies above the
+// range, and every dip in range is a subharmonic of it (a 1 kHz tone searched
+// up to 500 Hz dips at 2 ms), so the frame has no F0 in range.
+bool periodicBelowLag(std::span<const float> normalised, int minLag, float threshold);
 
 // Earmark's timing refinement (yin.hpp, step 5): d(τ) summed over `window`
 // pairs whose region [s, s + window + τ) is centred on `centre` (a sample

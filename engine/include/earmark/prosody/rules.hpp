@@ -105,7 +105,8 @@ struct ScanRules {
 
 // Parses a rules document over the defaults. `origin` names the file in
 // errors. Throws ParamError("rules.<section>.<key>", problem) for unknown or
-// invalid keys, InputError(origin) for text that is not JSON.
+// invalid keys (also whole numbers beyond their type), ParamError(origin) for
+// text that is not JSON or holds a number beyond a double (exit 2, as docs/scan.md says).
 ScanRules parseRules(const std::string& json, const std::string& origin = "rules");
 // Reads and parses a rules file; InputError(path) when it cannot be read.
 ScanRules loadRules(const std::string& path);

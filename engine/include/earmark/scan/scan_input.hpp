@@ -11,6 +11,7 @@ namespace earmark {
 struct ScanItem {
     std::size_t index = 0;    // position in the full listing (before sharding), 0-based
     std::string id;           // manifest id, or the path below the folder without extension
+                              // (with it when files differ only by extension: x.flac, x.wav)
     std::string audioPath;    // as opened (manifest paths resolved against the manifest's folder)
     std::string text;         // script line; may be empty
     std::string timingsPath;  // word/phone timings file; may be empty
