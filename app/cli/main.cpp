@@ -93,7 +93,7 @@ int main(int argc, char** argv) {
         if (std::fflush(stdout) != 0 || std::ferror(stdout)) {
             std::fprintf(stderr, "earmark-cli %s: standard output: write failed: %s\n", name.c_str(),
                          std::strerror(errno));
-            return earmark::cli::kExitFailure;
+            return earmark::cli::kExitCannotWrite;
         }
         return code;
     } catch (const earmark::cli::UsageError& e) {

@@ -44,7 +44,7 @@ void writeTextOutput(const std::string& path, const std::string& text) {
         std::fwrite(text.data(), 1, text.size(), stdout);
         std::fputc('\n', stdout);
         if (std::fflush(stdout) != 0 || std::ferror(stdout))
-            throw Error("standard output", std::string("write failed: ") + std::strerror(errno));
+            throw WriteError("standard output", std::string("write failed: ") + std::strerror(errno));
         return;
     }
     std::error_code kind;

@@ -36,14 +36,14 @@ TEST(ExitCodes, ZeroWhenDone) {
     EXPECT_EQ(runCli({"analyze", writeTake(dir, "a.wav")}).exitCode, 0);
 }
 
-TEST(ExitCodes, OneWhenAnOutputCannotBeWritten) {
+TEST(ExitCodes, FourWhenAnOutputCannotBeWritten) {
     TempDir dir;
     const std::string take = writeTake(dir, "a.wav");
     auto r = runCli({"analyze", take, "--json", dir.file("no-such-folder/a.json")});
-    EXPECT_EQ(r.exitCode, 1);
+    EXPECT_EQ(r.exitCode, 4);
     expectOneLineError(r, dir.file("no-such-folder/a.json"));
     r = test::runCliRedirected({"analyze", take}, "/dev/null", "/dev/full");
-    EXPECT_EQ(r.exitCode, 1);
+    EXPECT_EQ(r.exitCode, 4);
     expectOneLineError(r, "standard output");
 }
 

@@ -39,7 +39,7 @@ TEST(HostileInputCli, WriteErrorsOnStdoutFail) {
     for (const std::vector<std::string>& args :
          {std::vector<std::string>{"analyze", take}, {"analyze", take, "--json", "-"}, {"scan", dir.path().string()}}) {
         const auto r = runCliRedirected(args, "/dev/null", "/dev/full");
-        EXPECT_EQ(r.exitCode, 1) << args[0];
+        EXPECT_EQ(r.exitCode, 4) << args[0];
         expectOneLineError(r, "standard output: write failed");
     }
 }

@@ -8,8 +8,10 @@
 #include "earmark/marks/utf8.hpp"
 
 #include <cstddef>
+#include <set>
 #include <string>
 #include <string_view>
+#include <vector>
 
 namespace earmark::io_detail {
 
@@ -40,11 +42,24 @@ std::string pathFromJson(const Json& object, const std::string& key, const std::
     return object.at(key).template get<std::string>();
 }
 
-// `Json` is nlohmann::json or nlohmann::ordered_json.
+// `Json` is nlohmann::json or nlohmann::ordered_json. A key given twice in
+// one object is refused (nlohmann would keep the last one silently, so a
+// timings file with two "words" tiers would lose one without a word).
 template <class Json>
 Json parseJsonText(std::string_view text, const std::string& source) {
+    std::vector<std::set<std::string>> keysOfOpenObjects;
+    const auto refuseRepeatedKeys = [&](int, typename Json::parse_event_t event, Json& parsed) {
+        using Event = typename Json::parse_event_t;
+        if (event == Event::object_start) keysOfOpenObjects.emplace_back();
+        else if (event == Event::object_end && !keysOfOpenObjects.empty()) keysOfOpenObjects.pop_back();
+        else if (event == Event::key && !keysOfOpenObjects.empty() &&
+                 !keysOfOpenObjects.back().insert(parsed.template get<std::string>()).second)
+            throw InputError(source, "holds the key \"" + validUtf8(parsed.template get<std::string>()) +
+                                         "\" twice in one object");
+        return true;
+    };
     try {
-        return Json::parse(text.begin(), text.end());
+        return Json::parse(text.begin(), text.end(), refuseRepeatedKeys);
     } catch (const typename Json::parse_error& e) {
         throw InputError(source, lineAndColumn(text, e.byte > 0 ? e.byte - 1 : 0) + ": not valid JSON");
     } catch (const typename Json::out_of_range& e) {

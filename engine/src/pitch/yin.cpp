@@ -114,7 +114,7 @@ std::vector<PitchCandidates> firstPass(std::span<const float> x, std::int64_t fr
         c.dips[0] = pick;
         c.count = 1 + deepestDips(d, dn, g.minLag, g.maxLag, pick.lag, std::span(c.dips).subspan(1));
         // F0 above the range: every dip in range is a subharmonic, none is an answer.
-        if (periodicBelowLag(dn, g.minLag, threshold))
+        if (periodicBelowLag(dn, g.minLag, thresholds[static_cast<std::size_t>(t)]))
             for (int k = 0; k < c.count; ++k) c.dips[static_cast<std::size_t>(k)].aperiodicity = 1.0f;
     };
 

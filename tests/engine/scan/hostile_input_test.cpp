@@ -50,7 +50,8 @@ TEST(ScanHostileInput, ATimingsFileWithAHugeNumberIsIgnoredNotTheAudio) {
 ScanRow measuredRow(std::size_t index, double lufs) {
     ScanRow row;
     row.index = index;
-    row.id = "t" + std::to_string(index);
+    // Appended, not `"t" + to_string`: GCC 12 raises a false -Wrestrict on that.
+    row.id = std::string("t").append(std::to_string(index));
     row.file = row.id + ".wav";
     row.measures = TakeMeasures{};
     row.measures->durationS = 2.0 + index / 7.0;  // not a round number of milliseconds

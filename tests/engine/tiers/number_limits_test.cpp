@@ -62,5 +62,18 @@ TEST(NumberLimits, AVersionNumberIsNotReadModulo2To32) {
     EXPECT_THROW(parseTimingsJson(R"({"version": 4294967297, "words": []})", "v.json"), InputError);
 }
 
+TEST(RepeatedKeys, ATierGivenTwiceIsRefusedNotMerged) {
+    // JSON (RFC 8259 §4) leaves repeated names undefined; a reader that kept
+    // the last "words" would drop the first tier without a word.
+    test::TempDir dir;
+    std::ofstream(dir.file("twice.json"), std::ios::binary)
+        << R"({"words": [{"text": "a", "start": 0, "end": 1}], "words": [{"text": "b", "start": 1, "end": 2}]})";
+    EXPECT_THAT(problemOf(dir.file("twice.json")), HasSubstr("holds the key \"words\" twice in one object"));
+    // The same name in two different objects is fine.
+    std::ofstream(dir.file("rows.json"), std::ios::binary)
+        << R"({"words": [{"text": "a", "start": 0, "end": 1}, {"text": "b", "start": 1, "end": 2}]})";
+    EXPECT_EQ(problemOf(dir.file("rows.json")), "(no error)");
+}
+
 }  // namespace
 }  // namespace earmark
