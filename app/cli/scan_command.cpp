@@ -14,6 +14,7 @@
 
 #include <cmath>
 #include <cstdio>
+#include <optional>
 #include <string>
 
 namespace earmark::cli {
@@ -21,13 +22,17 @@ namespace {
 
 Arguments makeArguments() {
     return Arguments(
-        "scan", "INPUT [OPTIONS]   (INPUT: a folder of audio files, or a manifest CSV id,audio[,text][,timings])",
+        "scan", "INPUT [OPTIONS]   (INPUT: a folder of audio files, or a manifest CSV id,audio[,text][,timings][,voice])",
         {
             {"out", "FILE|-", "-", "ranked takes as CSV (RFC 4180); - = stdout"},
             {"json", "FILE|-", "", "also write the ranked takes as JSON, with every suspect's value and span"},
             {"jobs", "N", "all cores", "takes analysed at once (one thread each)"},
             {"shard", "K/N", "1/1", "scan only part K of N (split by a hash of each take's id)"},
             {"rules", "FILE", "built in", "thresholds as JSON (see docs/rules-default.json)"},
+            {"voice", "NAME", "en-us", "voice of takes whose manifest row names none; English voices get word "
+                                       "evidence (pronunciation and script coverage)"},
+            {"calibration", "FILE", "this set", "judge pronunciation against the word-score calibration of an "
+                                                "earlier scan's JSON (e.g. of the whole set, for --shard)"},
             {"session", "FILE", "", "also write the ranked queue and suspects into this session file "
                                     "(created when missing)"},
             {"progress", "", "", "show progress on stderr even when it is not a terminal"},
@@ -59,6 +64,9 @@ int runScan(const std::vector<std::string>& argv) {
         throw UsageError("expects exactly one INPUT folder or manifest (see earmark-cli scan --help)");
     ScanSettings settings;
     if (auto rules = args.value("rules")) settings.rules = loadRules(*rules);
+    settings.voice = args.valueOr("voice", settings.voice);
+    std::optional<WordScoreCalibration> calibration;
+    if (auto c = args.value("calibration")) calibration = readWordCalibration(*c);
     if (auto jobs = args.number("jobs")) {
         if (*jobs < 1 || std::floor(*jobs) != *jobs) throw UsageError("--jobs expects a whole number >= 1");
         settings.jobs = static_cast<int>(*jobs);
@@ -95,7 +103,7 @@ int runScan(const std::vector<std::string>& argv) {
     };
     ScanRun run = earmark::runScan(items, settings, observer);
     if (drew) std::fputc('\n', stderr);
-    const ScanReport report = makeReport(std::move(run), settings.rules);
+    const ScanReport report = makeReport(std::move(run), settings.rules, calibration);
 
     writeTextOutput(out, csvForOutput(reportToCsv(report)));
     if (json) writeTextOutput(*json, reportToJson(report, settings.rules));

@@ -23,6 +23,38 @@ std::shared_ptr<const AcousticModel> sharedModel(const std::filesystem::path& fo
     return slot;
 }
 
+// Frame-weighted median over the path's phones of (best context-free state
+// score − the path's score) per frame, nats/frame: 0 where the script's
+// phones are the best explanation of the frames. Only phones over sound
+// count (most frames best explained by a phone that is not silence or
+// filler): script words forced onto silence measure a missing word, not the voice.
+double typicalMismatch(const AcousticModel& model, const ForcedAlignment& path, const std::vector<float>& contextFree) {
+    const std::size_t perFrame = static_cast<std::size_t>(model.basePhoneCount()) * AcousticModel::kStates;
+    std::vector<std::pair<double, std::size_t>> gaps;  // per phone: gap per frame, frames
+    std::size_t total = 0;
+    for (const PathSegment& s : path.path) {
+        if (s.kind != PathSegment::Kind::Phone || s.endFrame <= s.startFrame) continue;
+        double best = 0;
+        std::size_t sounding = 0;
+        for (std::size_t t = s.startFrame; t < s.endFrame; ++t) {
+            const auto first = contextFree.begin() + static_cast<std::ptrdiff_t>(t * perFrame);
+            const auto top = std::max_element(first, first + static_cast<std::ptrdiff_t>(perFrame));
+            best += *top;
+            sounding += !model.isFiller(static_cast<int>(top - first) / AcousticModel::kStates);
+        }
+        const std::size_t frames = s.endFrame - s.startFrame;
+        if (sounding * 2 <= frames) continue;
+        gaps.emplace_back(std::max(0.0, (best - s.logLikelihood) / static_cast<double>(frames)), frames);
+        total += frames;
+    }
+    if (gaps.empty()) return 0.0;
+    std::sort(gaps.begin(), gaps.end());
+    std::size_t seen = 0;
+    for (const auto& [gap, frames] : gaps)
+        if ((seen += frames) * 2 >= total) return gap;
+    return gaps.back().first;
+}
+
 double roundMs(double s) { return std::round(s * 1000.0) / 1000.0; }
 
 std::string quoteWords(const std::vector<std::string>& words) {
@@ -45,6 +77,8 @@ void WordEvidenceParams::validate() const {
         throw ParamError("WordEvidenceParams.insertionPenalty", "must be a finite number >= 0");
     if (!(minExtraSeconds >= 0) || !std::isfinite(minExtraSeconds))
         throw ParamError("WordEvidenceParams.minExtraSeconds", "must be a finite number >= 0");
+    if (!(referenceMismatch > 0) || !std::isfinite(referenceMismatch))
+        throw ParamError("WordEvidenceParams.referenceMismatch", "must be > 0");
     if (!(confidenceScale > 0) || !std::isfinite(confidenceScale))
         throw ParamError("WordEvidenceParams.confidenceScale", "must be > 0");
     if (voice.empty()) throw ParamError("WordEvidenceParams.voice", "is empty");
@@ -82,7 +116,22 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
     const std::vector<ScriptWord> script = scriptWords(text, *dictionary, *model, params.voice);
     const ModelFeatures features = computeModelFeatures(take, model->frontEnd(), progress.sub(0.02, 0.1));
     std::vector<float> contextFree;
-    const ForcedAlignment path = forceAlign(*model, features, script, contextFree, params.search, progress.sub(0.1, 0.85));
+    // Pass 1, the script as written: how far the take's voice lies from the
+    // model where it says the script. Pass 2 lets the garbage unit win only
+    // where the take fits worse than that by the garbage penalty, so a voice
+    // the model fits loosely (a formant synthesiser) is not read as unscripted speech.
+    ForcedAlignmentParams plain = params.search;
+    plain.coverage = false;
+    const ForcedAlignment first = forceAlign(*model, features, script, contextFree, plain, progress.sub(0.1, 0.45));
+    ForcedAlignmentParams search = params.search;
+    const double mismatch = typicalMismatch(*model, first, contextFree);
+    search.garbageFramePenalty += mismatch;
+    // Score differences between competing paths grow with the mismatch: the
+    // penalties, set for voices within referenceMismatch, grow with it.
+    const double scale = std::max(1.0, mismatch / params.referenceMismatch);
+    for (double* penalty : {&search.skipPenalty, &search.repeatPenalty, &search.extraPenalty, &search.earlyEndPenalty})
+        *penalty *= scale;
+    const ForcedAlignment path = forceAlign(*model, features, script, contextFree, search, progress.sub(0.45, 0.85));
     if (!path.reachedEnd) throw InputError("audio", "could not be aligned to the text (no path through the model)");
 
     const double hop = features.hopSeconds;

@@ -64,6 +64,14 @@ std::vector<Section> layout(ScanRules& r) {
         {"loudness", with(switchFields(r.loudness), {{"max_deviation_lu", &r.loudness.maxDeviationLu},
                                                      {"min_takes", &r.loudness.minTakes}})},
         {"dc_offset", with(switchFields(r.dcOffset), {{"max_abs", &r.dcOffset.maxAbs}})},
+        {"pronunciation", with(switchFields(r.pronunciation), {{"max_mads_below", &r.pronunciation.maxMadsBelow},
+                                                               {"min_mad", &r.pronunciation.minMad},
+                                                               {"min_words", &r.pronunciation.minWords}})},
+        {"skipped_word", switchFields(r.skippedWord)},
+        {"repeated_word", switchFields(r.repeatedWord)},
+        {"extra_speech", with(switchFields(r.extraSpeech), {{"min_s", &r.extraSpeech.minSeconds}})},
+        {"substituted_word", switchFields(r.substitutedWord)},
+        {"early_end", switchFields(r.earlyEnd)},
         {"longform", {{"window_s", &r.longform.windowSeconds},
                       {"window_hop_s", &r.longform.windowHopSeconds},
                       {"min_take_s", &r.longform.minTakeSeconds},
@@ -167,6 +175,11 @@ ProsodyParams ScanRules::prosodyParams() const {
     return p;
 }
 
+bool ScanRules::wordEvidenceEnabled() const {
+    return pronunciation.enabled || skippedWord.enabled || repeatedWord.enabled || extraSpeech.enabled ||
+           substitutedWord.enabled || earlyEnd.enabled;
+}
+
 void ScanRules::validate() const {
     try {
         pause.validate();
@@ -197,7 +210,9 @@ void ScanRules::validate() const {
         {"pause_missing", &pauseMissing}, {"rushed", &rushed}, {"dragged", &dragged},
         {"clipping", &clipping}, {"truncation", &truncation}, {"leading_silence", &leadingSilence},
         {"trailing_silence", &trailingSilence}, {"loudness", &loudness}, {"dc_offset", &dcOffset},
-        {"click", &click}, {"noise_burst", &noiseBurst}, {"buzz", &buzz}, {"dropout", &dropout}};
+        {"click", &click}, {"noise_burst", &noiseBurst}, {"buzz", &buzz}, {"dropout", &dropout},
+        {"pronunciation", &pronunciation}, {"skipped_word", &skippedWord}, {"repeated_word", &repeatedWord},
+        {"extra_speech", &extraSpeech}, {"substituted_word", &substitutedWord}, {"early_end", &earlyEnd}};
     for (const auto& [name, sw] : switches) nonNegative(sw->weight, name, "weight");
     positive(flat.maxRangeSt, "flat", "max_range_st");
     if (flat.minWords < 2) throw ParamError("rules.flat.min_words", "must be >= 2");
@@ -220,6 +235,10 @@ void ScanRules::validate() const {
     positive(loudness.maxDeviationLu, "loudness", "max_deviation_lu");
     if (loudness.minTakes < 2) throw ParamError("rules.loudness.min_takes", "must be >= 2");
     positive(dcOffset.maxAbs, "dc_offset", "max_abs");
+    positive(pronunciation.maxMadsBelow, "pronunciation", "max_mads_below");
+    positive(pronunciation.minMad, "pronunciation", "min_mad");
+    if (pronunciation.minWords < 2) throw ParamError("rules.pronunciation.min_words", "must be >= 2");
+    nonNegative(extraSpeech.minSeconds, "extra_speech", "min_s");
     validateLongform(longform);
     // The detectors check their own parameters; name the section in the error.
     auto detector = [](const char* section, auto&& check) {

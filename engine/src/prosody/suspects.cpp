@@ -11,7 +11,7 @@
 namespace earmark {
 namespace {
 
-constexpr std::array<std::pair<SuspectKind, const char*>, 17> kNames = {{
+constexpr std::array<std::pair<SuspectKind, const char*>, 23> kNames = {{
     {SuspectKind::Flat, "flat"},
     {SuspectKind::PitchJump, "pitch-jump"},
     {SuspectKind::PauseTooLong, "pause-too-long"},
@@ -29,6 +29,12 @@ constexpr std::array<std::pair<SuspectKind, const char*>, 17> kNames = {{
     {SuspectKind::NoiseBurst, "noise-burst"},
     {SuspectKind::Buzz, "buzz"},
     {SuspectKind::Dropout, "dropout"},
+    {SuspectKind::Pronunciation, "pronunciation"},
+    {SuspectKind::SkippedWord, "skipped-word"},
+    {SuspectKind::RepeatedWord, "repeated-word"},
+    {SuspectKind::ExtraSpeech, "extra-speech"},
+    {SuspectKind::SubstitutedWord, "substituted-word"},
+    {SuspectKind::EarlyEnd, "early-end"},
 }};
 
 // Shortest decimal form with at most `decimals` places ("2", "1.5", "0.04").
@@ -248,6 +254,11 @@ double scaleOf(const TakeSuspect& s) {
         case SuspectKind::Truncation:
         case SuspectKind::NoiseBurst:
         case SuspectKind::Dropout: return std::max(1.0, std::fabs(s.threshold));
+        case SuspectKind::SkippedWord:
+        case SuspectKind::RepeatedWord:
+        case SuspectKind::SubstitutedWord:
+        case SuspectKind::EarlyEnd: return 1.0;  // value and threshold are word counts
+        case SuspectKind::Pronunciation: return std::max(0.1, std::fabs(s.threshold));
         default: return std::max(1e-9, std::fabs(s.threshold));
     }
 }
@@ -271,6 +282,12 @@ const RuleSwitch& switchOf(SuspectKind kind, const ScanRules& r) {
         case SuspectKind::NoiseBurst: return r.noiseBurst;
         case SuspectKind::Buzz: return r.buzz;
         case SuspectKind::Dropout: return r.dropout;
+        case SuspectKind::Pronunciation: return r.pronunciation;
+        case SuspectKind::SkippedWord: return r.skippedWord;
+        case SuspectKind::RepeatedWord: return r.repeatedWord;
+        case SuspectKind::ExtraSpeech: return r.extraSpeech;
+        case SuspectKind::SubstitutedWord: return r.substitutedWord;
+        case SuspectKind::EarlyEnd: return r.earlyEnd;
     }
     return r.flat;
 }
@@ -289,7 +306,9 @@ std::optional<SuspectKind> suspectKindFromName(const std::string& name) {
     return std::nullopt;
 }
 
-bool isSetLevel(SuspectKind kind) { return kind == SuspectKind::Loud || kind == SuspectKind::Quiet; }
+bool isSetLevel(SuspectKind kind) {
+    return kind == SuspectKind::Loud || kind == SuspectKind::Quiet || kind == SuspectKind::Pronunciation;
+}
 
 std::vector<TakeSuspect> findSuspects(const ProsodyContext& c, const TakeMeasures& m, const ScanRules& rules) {
     rules.validate();

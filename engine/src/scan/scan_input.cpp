@@ -68,7 +68,7 @@ std::vector<ScanItem> listManifest(const fs::path& manifest) {
     for (const char* required : {"id", "audio"})
         if (!column.count(required))
             throw InputError(manifest.string(), std::string("the header has no '") + required +
-                                                    "' column (expected id,audio[,text][,timings])");
+                                                    "' column (expected id,audio[,text][,timings][,voice])");
     const fs::path base = manifest.parent_path();
     auto resolve = [&](const std::string& p) {
         const fs::path path(p);
@@ -95,6 +95,7 @@ std::vector<ScanItem> listManifest(const fs::path& manifest) {
         item.audioPath = resolve(audio);
         item.text = cell(r, "text");
         if (const std::string t = cell(r, "timings"); !t.empty()) item.timingsPath = resolve(t);
+        item.voice = cell(r, "voice");
         items.push_back(std::move(item));
     }
     return items;

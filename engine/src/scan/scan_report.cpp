@@ -121,6 +121,137 @@ std::vector<std::string> split(const std::string& s, const std::string& sep) {
     return parts;
 }
 
+Json numberOrNull(double v) { return std::isfinite(v) ? Json(v) : Json(nullptr); }
+double numberFrom(const Json& j) { return j.is_number() ? j.get<double>() : NAN; }
+
+// Word-evidence columns: word lists are space-separated (a script word holds
+// no white space); the extra stretches are separated by " | ".
+using Kind = CoverageFinding::Kind;
+
+std::string spaced(const std::vector<std::string>& words, const std::string& sep = " ") {
+    std::string out;
+    for (const auto& w : words) out += (out.empty() ? "" : sep) + w;
+    return out;
+}
+
+const CoverageFinding* earlyEndOf(const TakeWords& w) {
+    for (const auto& c : w.coverage)
+        if (c.kind == Kind::EarlyEnd) return &c;
+    return nullptr;
+}
+
+std::vector<std::string> extraNear(const TakeWords& w) {
+    std::vector<std::string> out;
+    for (const auto& c : w.coverage)
+        if (c.kind == Kind::Extra) out.push_back(spaced(c.words));
+    return out;
+}
+
+const std::vector<std::string>& wordColumns() {
+    static const std::vector<std::string> c = {"alignment_method", "lowest_word_score", "lowest_word",
+                                               "missing_words",    "repeated_words",    "extra_near",
+                                               "early_end_s",      "early_end_words"};
+    return c;
+}
+
+std::vector<std::string> wordCells(const TakeWords& w) {
+    if (!w.gathered()) return std::vector<std::string>(wordColumns().size());
+    const ScannedWord* low = w.lowest();
+    const CoverageFinding* end = earlyEndOf(w);
+    return {w.method,
+            low ? fixed(low->score, 3) : "",
+            low ? low->label : "",
+            spaced(w.wordsOf(Kind::Skipped)),
+            spaced(w.wordsOf(Kind::Repeated)),
+            spaced(extraNear(w), " | "),
+            end ? fixed(end->startS, 3) : "",
+            end ? spaced(end->words) : ""};
+}
+
+// The columns back into a TakeWords without per-word scores.
+TakeWords wordsFromCells(const std::function<std::string(const std::string&)>& cell, const std::string& where) {
+    TakeWords w;
+    w.method = cell("alignment_method");
+    if (w.method.empty()) return w;
+    if (const auto low = parseNumber(cell("lowest_word_score"), where + " lowest_word_score"))
+        w.words.push_back({cell("lowest_word"), NAN, NAN, *low, ""});
+    auto finding = [&](Kind kind, std::vector<std::string> words) {
+        CoverageFinding f;
+        f.kind = kind;
+        f.words = std::move(words);
+        f.startS = f.endS = NAN;
+        w.coverage.push_back(std::move(f));
+    };
+    for (const auto& word : split(cell("missing_words"), " ")) finding(Kind::Skipped, {word});
+    for (const auto& word : split(cell("repeated_words"), " ")) finding(Kind::Repeated, {word});
+    for (const auto& near : split(cell("extra_near"), " | ")) finding(Kind::Extra, split(near, " "));
+    if (const auto end = parseNumber(cell("early_end_s"), where + " early_end_s")) {
+        finding(Kind::EarlyEnd, split(cell("early_end_words"), " "));
+        w.coverage.back().startS = *end;
+    }
+    return w;
+}
+
+Json wordsToJson(const TakeWords& w) {
+    if (!w.gathered()) return nullptr;
+    const ScannedWord* low = w.lowest();
+    const CoverageFinding* end = earlyEndOf(w);
+    Json j;
+    j["method"] = w.method;
+    j["lowest_word_score"] = low ? numberOrNull(low->score) : Json(nullptr);
+    j["lowest_word"] = low ? Json(low->label) : Json(nullptr);
+    j["missing_words"] = w.wordsOf(Kind::Skipped);
+    j["repeated_words"] = w.wordsOf(Kind::Repeated);
+    j["extra_near"] = extraNear(w);
+    j["early_end_s"] = end ? numberOrNull(end->startS) : Json(nullptr);
+    j["early_end_words"] = end ? Json(end->words) : Json::array();
+    Json coverage = Json::array();
+    for (const auto& c : w.coverage)
+        coverage.push_back({{"kind", coverageKindName(c.kind)},
+                            {"words", c.words},
+                            {"start_s", numberOrNull(c.startS)},
+                            {"end_s", numberOrNull(c.endS)},
+                            {"detail", c.detail}});
+    j["coverage"] = coverage;
+    if (w.scoresKnown) {
+        Json scores = Json::array();
+        for (const auto& s : w.words)
+            scores.push_back({{"word", s.label},
+                              {"start_s", s.startS},
+                              {"end_s", s.endS},
+                              {"score", numberOrNull(s.score)},
+                              {"off_phones", s.offPhones}});
+        j["scores"] = scores;
+    }
+    return j;
+}
+
+TakeWords wordsFromJson(const Json& j) {
+    TakeWords w;
+    if (j.is_null()) return w;
+    w.method = j.at("method").get<std::string>();
+    for (const auto& c : j.at("coverage")) {
+        CoverageFinding f;
+        const std::string kind = c.at("kind").get<std::string>();
+        for (auto k : {Kind::Skipped, Kind::Repeated, Kind::Extra, Kind::EarlyEnd, Kind::Substituted})
+            if (kind == coverageKindName(k)) f.kind = k;
+        f.words = c.at("words").get<std::vector<std::string>>();
+        f.startS = numberFrom(c.at("start_s"));
+        f.endS = numberFrom(c.at("end_s"));
+        f.detail = c.at("detail").get<std::string>();
+        w.coverage.push_back(std::move(f));
+    }
+    if (j.contains("scores")) {
+        w.scoresKnown = true;
+        for (const auto& s : j.at("scores"))
+            w.words.push_back({s.at("word").get<std::string>(), numberFrom(s.at("start_s")), numberFrom(s.at("end_s")),
+                               numberFrom(s.at("score")), s.at("off_phones").get<std::string>()});
+    } else if (j.at("lowest_word_score").is_number()) {
+        w.words.push_back({j.at("lowest_word").get<std::string>(), NAN, NAN, j.at("lowest_word_score").get<double>(), ""});
+    }
+    return w;
+}
+
 const std::vector<std::string>& leadColumns() {
     static const std::vector<std::string> c = {"rank", "id", "file", "status"};
     return c;
@@ -134,8 +265,6 @@ const std::vector<std::string>& tailColumns() {
 // Positions beyond this cannot come from a real listing; checked before any cast.
 constexpr double kMaxPosition = 1e15;
 
-Json numberOrNull(double v) { return std::isfinite(v) ? Json(v) : Json(nullptr); }
-double numberFrom(const Json& j) { return j.is_number() ? j.get<double>() : NAN; }
 
 ScanReport readCsvReport(const std::string& text, const std::string& path) {
     auto records = parseCsv(text, path);
@@ -170,6 +299,7 @@ ScanReport readCsvReport(const std::string& text, const std::string& path) {
                 if (col.count(meas.name)) meas.set(m, parseNumber(cell(meas.name), where + " " + meas.name));
             if (col.count("syllable_source")) m.syllableSource = sourceFromName(cell("syllable_source"));
             row.measures = m;
+            row.words = wordsFromCells(cell, where);
         }
         const auto names = split(cell("suspects"), ";");
         const auto reasons = split(cell("reasons"), "; ");
@@ -192,15 +322,31 @@ ScanReport readCsvReport(const std::string& text, const std::string& path) {
     return report;
 }
 
-ScanReport readJsonReport(const std::string& text, const std::string& path) {
+WordScoreCalibration calibrationFromJson(const Json& j) {
+    WordScoreCalibration c;
+    c.medianScore = j.at("median_score").get<double>();
+    c.mad = j.at("mad").get<double>();
+    c.words = j.at("words").get<std::size_t>();
+    c.supplied = j.value("supplied", false);
+    return c;
+}
+
+Json parseScanJson(const std::string& text, const std::string& path) {
     const Json doc = io_detail::parseJsonText<Json>(text, path);
     if (!doc.is_object() || doc.value("format", "") != "earmark-scan" || !doc.contains("takes"))
         throw InputError(path, "is not an earmark scan JSON (no \"format\": \"earmark-scan\" with \"takes\")");
+    return doc;
+}
+
+ScanReport readJsonReport(const std::string& text, const std::string& path) {
+    const Json doc = parseScanJson(text, path);
     ScanReport report;
     try {
         report.partial = doc.value("partial", false);
         if (const auto listed = doc.find("takes_listed"); listed != doc.end() && listed->is_number_unsigned())
             report.takesListed = static_cast<std::size_t>(listed->get<std::uint64_t>());
+        if (doc.contains("word_score_calibration") && doc.at("word_score_calibration").is_object())
+            report.wordCalibration = calibrationFromJson(doc.at("word_score_calibration"));
         for (const auto& t : doc.at("takes")) {
             ScanRow row;
             const Json& position = t.at("position");
@@ -224,6 +370,7 @@ ScanReport readJsonReport(const std::string& text, const std::string& path) {
                 m.syllableSource = sourceFromName(jm.value("syllable_source", "none"));
                 row.measures = m;
             }
+            if (t.contains("words")) row.words = wordsFromJson(t.at("words"));
             for (const auto& js : t.at("suspects")) {
                 const auto kind = suspectKindFromName(js.at("name").get<std::string>());
                 if (!kind) throw InputError(path, "take '" + row.id + "': unknown suspect '" +
@@ -250,14 +397,47 @@ ScanReport readJsonReport(const std::string& text, const std::string& path) {
 
 }  // namespace
 
-void applySetRules(ScanReport& report, const ScanRules& rules) {
+namespace {
+
+// Pronunciation against the set (or the supplied calibration).
+void applyPronunciation(ScanReport& report, const ScanRules& rules,
+                        const std::optional<WordScoreCalibration>& supplied) {
+    std::vector<double> scores;
+    for (const auto& row : report.rows)
+        if (!row.failed && row.words.scoresKnown)
+            for (const auto& w : row.words.words) scores.push_back(w.score);
+    report.wordCalibration = supplied;
+    if (report.wordCalibration) report.wordCalibration->supplied = true;
+    else report.wordCalibration = calibrateWordScores(std::move(scores), rules.pronunciation);
+    for (auto& row : report.rows) {
+        if (row.failed) continue;
+        if (!row.words.scoresKnown) {
+            // Read back from a CSV: the suspect found then stays, at its weight.
+            for (const auto& s : row.suspects)
+                if (s.kind == SuspectKind::Pronunciation) row.score += rules.pronunciation.weight;
+            continue;
+        }
+        if (!rules.pronunciation.enabled || !report.wordCalibration) continue;
+        if (auto s = pronunciationSuspect(row.words, *report.wordCalibration, rules)) {
+            row.score += suspectScore(*s, rules);
+            row.suspects.push_back(std::move(*s));
+        }
+    }
+}
+
+}  // namespace
+
+void applySetRules(ScanReport& report, const ScanRules& rules, const std::optional<WordScoreCalibration>& calibration) {
     std::vector<double> lufs;
     for (auto& row : report.rows) {
-        std::erase_if(row.suspects, [](const TakeSuspect& s) { return isSetLevel(s.kind); });
+        std::erase_if(row.suspects, [&](const TakeSuspect& s) {
+            return isSetLevel(s.kind) && (s.kind != SuspectKind::Pronunciation || row.words.scoresKnown);
+        });
         row.score = row.takeScore;
         if (!row.failed && row.measures && row.measures->level.loudnessLufs)
             lufs.push_back(*row.measures->level.loudnessLufs);
     }
+    applyPronunciation(report, rules, calibration);
     report.setMedianLufs.reset();
     if (!rules.loudness.enabled || lufs.size() < static_cast<std::size_t>(rules.loudness.minTakes)) return;
     std::sort(lufs.begin(), lufs.end());
@@ -283,12 +463,12 @@ void rankRows(std::vector<ScanRow>& rows) {
     });
 }
 
-ScanReport makeReport(ScanRun run, const ScanRules& rules) {
+ScanReport makeReport(ScanRun run, const ScanRules& rules, const std::optional<WordScoreCalibration>& calibration) {
     ScanReport report;
     report.rows = std::move(run.rows);
     report.partial = run.partial;
     report.takesListed = run.total;
-    applySetRules(report, rules);
+    applySetRules(report, rules, calibration);
     rankRows(report.rows);
     return report;
 }
@@ -297,6 +477,7 @@ std::string reportToCsv(const ScanReport& report) {
     std::vector<std::string> header = leadColumns();
     for (const auto& m : measures()) header.push_back(m.name);
     header.push_back("syllable_source");
+    header.insert(header.end(), wordColumns().begin(), wordColumns().end());
     header.insert(header.end(), tailColumns().begin(), tailColumns().end());
     std::string out = csvRecord(header);
     std::size_t rank = 0;
@@ -304,6 +485,7 @@ std::string reportToCsv(const ScanReport& report) {
         std::vector<std::string> rec = {std::to_string(++rank), row.id, row.file, row.status};
         for (const auto& m : measures()) rec.push_back(row.measures ? fixed(m.get(*row.measures), m.decimals) : "");
         rec.push_back(row.measures ? syllableSourceName(row.measures->syllableSource) : "");
+        for (auto& c : wordCells(row.words)) rec.push_back(std::move(c));
         rec.push_back(row.failed ? "" : std::to_string(row.suspects.size()));
         rec.push_back(row.failed ? "" : fixed(row.score, 3));
         rec.push_back(joined(row.suspects, false));
@@ -324,6 +506,13 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
     doc["takes_listed"] = report.takesListed;
     doc["takes_scanned"] = report.rows.size();
     doc["set_median_loudness_lufs"] = report.setMedianLufs ? Json(*report.setMedianLufs) : Json(nullptr);
+    if (report.wordCalibration) {
+        const auto& c = *report.wordCalibration;
+        doc["word_score_calibration"] = {{"median_score", c.medianScore}, {"mad", c.mad}, {"words", c.words},
+                                         {"supplied", c.supplied}, {"limit", c.limit(rules.pronunciation)}};
+    } else {
+        doc["word_score_calibration"] = nullptr;
+    }
     doc["rules"] = Json::parse(rulesToJson(rules));
     Json takes = Json::array();
     std::size_t rank = 0;
@@ -359,6 +548,7 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
                                 {"reason", s.reason}});
         }
         t["suspects"] = suspects;
+        t["words"] = wordsToJson(row.words);
         Json findings = Json::array();
         for (const Finding& f : row.findings) findings.push_back(detail::findingToJson(f));
         t["findings"] = findings;
@@ -373,6 +563,19 @@ ScanReport readReport(const std::string& path) {
     const auto first = text.find_first_not_of(" \t\r\n");
     if (first != std::string::npos && text[first] == '{') return readJsonReport(text, path);
     return readCsvReport(text, path);
+}
+
+WordScoreCalibration readWordCalibration(const std::string& path) {
+    const Json doc = parseScanJson(readTextFile(path), path);
+    const Json& c = doc.contains("word_score_calibration") ? doc.at("word_score_calibration") : Json();
+    if (!c.is_object()) throw InputError(path, "holds no word_score_calibration (the scan had too few scored words)");
+    try {
+        WordScoreCalibration out = calibrationFromJson(c);
+        out.supplied = true;
+        return out;
+    } catch (const Json::exception& e) {
+        throw InputError(path, std::string("word_score_calibration: a field is missing or has the wrong type: ") + e.what());
+    }
 }
 
 ScanReport mergeReports(std::vector<ScanReport> parts, const ScanRules& rules) {

@@ -12,6 +12,28 @@
 #include <thread>
 
 namespace earmark {
+namespace {
+
+bool blank(const std::string& s) { return s.find_first_not_of(" \t\r\n") == std::string::npos; }
+
+// Word evidence and the coverage suspects; a text that cannot be aligned is noted in the status.
+void checkWords(const ScanItem& item, const Signal& signal, const ScanSettings& settings, ScanRow& row,
+                Progress progress) {
+    if (!settings.rules.wordEvidenceEnabled() || blank(item.text)) return;
+    WordEvidenceParams params;
+    params.voice = item.voice.empty() ? settings.voice : item.voice;
+    if (!modelCoversVoice(params.voice)) return;
+    params.minExtraSeconds = settings.rules.extraSpeech.minSeconds;
+    try {
+        row.words = summariseWords(gatherWordEvidence(signal, item.text, params, progress));
+    } catch (const InputError& e) {
+        row.status += "; words not checked: " + e.subject() + " " + e.problem();
+        return;
+    }
+    for (auto& s : coverageSuspects(row.words, settings.rules)) row.suspects.push_back(std::move(s));
+}
+
+}  // namespace
 
 AnalysisParams ScanSettings::defaultAnalysis() {
     AnalysisParams p;
@@ -50,6 +72,7 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
         }
         for (auto& s : findArtefactSuspects(analysis.signal, context, settings.rules, progress))
             row.suspects.push_back(std::move(s));
+        checkWords(item, analysis.signal, settings, row, progress);
     } catch (const Cancelled&) {
         throw;
     } catch (const std::bad_alloc&) {

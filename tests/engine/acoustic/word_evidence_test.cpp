@@ -10,6 +10,7 @@
 #include "earmark/acoustic/word_evidence.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
+#include "support/festival_takes.hpp"
 
 #include <gtest/gtest.h>
 
@@ -25,27 +26,8 @@ namespace earmark {
 namespace {
 
 namespace fs = std::filesystem;
-
-// Renders the takes once per build tree (release and debug share them).
-const fs::path& festivalTakes() {
-    static const fs::path dir = [] {
-        const fs::path d = fs::path(EARMARK_SOURCE_DIR) / "build" / "festival-takes";
-        fs::create_directories(d.parent_path());
-        const std::string script = std::string(EARMARK_TEST_DATA_DIR) + "/evidence/render_festival_takes.py";
-        const std::string cmd = "flock '" + d.string() + ".lock' sh -c \"[ -f '" + d.string() + "/done' ] || (python3 '" +
-                                script + "' '" + d.string() + "' && touch '" + d.string() + "/done')\"";
-        if (std::system(cmd.c_str()) != 0) throw std::runtime_error("rendering the festival takes failed: " + cmd);
-        return d;
-    }();
-    return dir;
-}
-
-std::string firstLine(const fs::path& p) {
-    std::ifstream in(p);
-    std::string s;
-    std::getline(in, s);
-    return s;
-}
+using test::festivalTakes;
+using test::firstLine;
 
 std::vector<double> truthStarts(const fs::path& p) {
     std::ifstream in(p);
@@ -56,17 +38,6 @@ std::vector<double> truthStarts(const fs::path& p) {
         double s = 0, e = 0;
         if (f >> s >> e) out.push_back(s);
     }
-    return out;
-}
-
-std::vector<fs::path> takes(const std::string& prefix, bool faults) {
-    std::vector<fs::path> out;
-    for (const auto& e : fs::directory_iterator(festivalTakes())) {
-        const std::string name = e.path().filename().string();
-        if (e.path().extension() != ".wav" || name.rfind(prefix, 0) != 0) continue;
-        if ((name.find("-fault-") != std::string::npos) == faults) out.push_back(e.path());
-    }
-    std::sort(out.begin(), out.end());
     return out;
 }
 
@@ -94,7 +65,7 @@ struct StartErrors {
 void checkVoice(const std::string& voice) {
     StartErrors errors;
     int falseFindings = 0;
-    const auto files = takes(voice + "-", false);
+    const auto files = test::festivalTakeFiles(voice + "-", false);
     ASSERT_EQ(files.size(), 12u);
     for (const fs::path& wav : files) {
         const WordEvidenceResult r = evidenceOf(wav);

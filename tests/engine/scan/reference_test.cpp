@@ -50,7 +50,7 @@ TEST(ScanReference, LoudnessMatchesLibebur128) {
         const std::string id = std::string("level-") + char('a' + i);
         const auto path = dir.path() / (id + ".wav");
         test::renderTake(spec, path);
-        items.push_back({static_cast<std::size_t>(i), id, path.string(), spec.text, ""});
+        items.push_back({static_cast<std::size_t>(i), id, path.string(), spec.text, "", ""});
     }
     const ScanRun run = runScan(items, ScanSettings{});
     ASSERT_EQ(run.rows.size(), items.size());
@@ -96,8 +96,8 @@ TEST(ScanReference, SpeechSpanAndRateAgainstTheRenderersWordTimes) {
     for (int wpm : {120, 240}) {
         rendered.push_back(render(text, wpm, dir.path(), "r" + std::to_string(wpm)));
         // Once with the renderer's timings (syllables from its phones), once with the text only.
-        items.push_back({items.size(), "timed-" + std::to_string(wpm), rendered.back().wav, text, rendered.back().timings});
-        items.push_back({items.size(), "text-" + std::to_string(wpm), rendered.back().wav, text, ""});
+        items.push_back({items.size(), "timed-" + std::to_string(wpm), rendered.back().wav, text, rendered.back().timings, ""});
+        items.push_back({items.size(), "text-" + std::to_string(wpm), rendered.back().wav, text, "", ""});
     }
     const ScanRun run = runScan(items, ScanSettings{});
     ASSERT_EQ(run.rows.size(), 4u);

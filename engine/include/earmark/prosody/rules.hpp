@@ -63,6 +63,19 @@ struct DcOffsetRule : RuleSwitch {
     double maxAbs = 0.01;                  // mean sample value, full scale 1.0
 };
 
+// Word evidence (earmark/acoustic/word_evidence.hpp) for takes with text in a
+// voice the acoustic model covers. Pronunciation is judged against the set:
+// a word scoring below median − maxMadsBelow × MAD of all word scores of the
+// set (MAD floored at minMad) is off.
+struct PronunciationRule : RuleSwitch {
+    double maxMadsBelow = 8.0;             // k: median absolute deviations below the set median
+    double minMad = 0.05;                  // nats/frame; floor of the set's MAD (a set of near-equal scores)
+    int minWords = 50;                     // fewer scored words in the set: the rule is not applied
+};
+struct ExtraSpeechRule : RuleSwitch {
+    double minSeconds = 0.15;              // shorter unscripted stretches are not reported
+};
+
 // The artefact detectors' rules: the detector's parameters (earmark/artefacts/).
 struct ClickRule : RuleSwitch {
     ClickParams params;
@@ -95,11 +108,19 @@ struct ScanRules {
     NoiseBurstRule noiseBurst{{false, 2.0}, {}};  // off: below the detection bar (docs/scan.md)
     BuzzRule buzz{{true, 2.0}, {}};
     DropoutRule dropout{{false, 2.0}, {}};        // off: below the detection bar (docs/scan.md)
+    PronunciationRule pronunciation;       // set-level, like loudness
+    RuleSwitch skippedWord;
+    RuleSwitch repeatedWord;
+    ExtraSpeechRule extraSpeech;
+    RuleSwitch substitutedWord;
+    RuleSwitch earlyEnd{true, 2.0};        // a take that stops before its script does weighs double
     double scoreCapPerSuspect = 3.0;       // section "score": one suspect adds at most weight × cap
     LongformRules longform;                // sections "longform", "seam", "level_drift", "pitch_drift",
                                            // "rate_drift", "timbre_shift", "monotone_stretch"
 
     ProsodyParams prosodyParams() const;
+    // True when any word-evidence rule is on (the scan then aligns takes with text).
+    bool wordEvidenceEnabled() const;
     void validate() const;  // throws ParamError("rules.<section>.<key>")
 };
 

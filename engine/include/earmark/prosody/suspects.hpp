@@ -18,22 +18,26 @@ enum class SuspectKind {
     Flat, PitchJump, PauseTooLong, PauseMissing, Rushed, Dragged, Clipping, Truncation,
     LeadingSilence, TrailingSilence, Loud, Quiet, DcOffset,
     Click, NoiseBurst, Buzz, Dropout,  // artefacts of the samples (findArtefactSuspects)
+    // Word evidence against the script (earmark/scan/word_checks.hpp); Pronunciation is set-level.
+    Pronunciation, SkippedWord, RepeatedWord, ExtraSpeech, SubstitutedWord, EarlyEnd,
 };
 
 // Names match the subtypes of the mark categories where one exists:
 // "flat", "pitch-jump", "pause-too-long", "pause-missing", "rushed", "dragged",
 // "clipping", "truncation", "leading-silence", "trailing-silence", "loud",
-// "quiet", "dc-offset", "click", "noise-burst", "buzz", "dropout".
+// "quiet", "dc-offset", "click", "noise-burst", "buzz", "dropout",
+// "pronunciation", "skipped-word", "repeated-word", "extra-speech",
+// "substituted-word", "early-end".
 const char* suspectName(SuspectKind kind);
 std::optional<SuspectKind> suspectKindFromName(const std::string& name);
-// Loud and Quiet compare a take with the whole set (second pass).
+// Loud, Quiet and Pronunciation compare a take with the whole set (second pass).
 bool isSetLevel(SuspectKind kind);
 
 struct TakeSuspect {
     SuspectKind kind = SuspectKind::Flat;
     double value = 0.0;       // the measured value, in `unit`
     double threshold = 0.0;   // the rule's limit, in `unit`
-    std::string unit;         // "st", "s", "syl/s", "samples", "dB", "LU", "FS"
+    std::string unit;         // "st", "s", "syl/s", "samples", "dB", "LU", "FS", "words", "nats/frame"
     double startS = 0.0, endS = 0.0;
     std::string reason;       // e.g. "flat: 1.4 st over 'open until late on Tuesday' (< 2 st)"
 };
@@ -56,7 +60,8 @@ std::optional<TakeSuspect> loudnessSuspect(double lufs, double setMedianLufs, do
 
 // Score of one suspect: weight × (1 + min(cap − 1, |value − threshold| / scale)),
 // scale = |threshold| (at least 1 sample for clipping, 0.001 for DC offset,
-// 1 dB for truncation and the dB-valued artefacts). So a suspect just past its threshold adds its weight,
+// 1 dB for truncation and the dB-valued artefacts, 1 word for the word
+// counts, 0.1 nats/frame for pronunciation). So a suspect just past its threshold adds its weight,
 // and one far past adds at most weight × cap.
 double suspectScore(const TakeSuspect& suspect, const ScanRules& rules);
 double totalScore(const std::vector<TakeSuspect>& suspects, const ScanRules& rules);

@@ -15,6 +15,7 @@ struct ScanItem {
     std::string audioPath;    // as opened (manifest paths resolved against the manifest's folder)
     std::string text;         // script line; may be empty
     std::string timingsPath;  // word/phone timings file; may be empty
+    std::string voice;        // the take's voice or language (espeak-ng name, e.g. "en-us"); may be empty
 };
 
 // True for the extensions libsndfile reads (wav, flac, ogg, oga, opus, aif,
@@ -23,8 +24,8 @@ bool isAudioFileName(const std::string& path);
 
 // A folder: every audio file below it (recursively), sorted by path (byte
 // order of the path below the folder). A file: a manifest CSV (RFC 4180)
-// with a header naming at least `id` and `audio`, optionally `text` and
-// `timings`; other columns are ignored; relative paths are taken from the
+// with a header naming at least `id` and `audio`, optionally `text`,
+// `timings` and `voice`; other columns are ignored; relative paths are taken from the
 // manifest's folder. Throws InputError(path, …) when the input is missing,
 // the manifest lacks a column, a row has an empty id or audio field, or an
 // id appears twice (naming the line).

@@ -16,20 +16,33 @@ struct ScanReport {
     bool partial = false;              // some listed takes were not scanned (interrupted)
     std::size_t takesListed = 0;       // takes given to the run(s) that made these rows
     std::optional<double> setMedianLufs;  // median loudness of the measured takes, when the rule ran
+    std::optional<WordScoreCalibration> wordCalibration;  // of the pronunciation rule, when it ran
 };
 
 // Loudness against the set: drops any earlier loud/quiet suspects, takes the
 // median integrated loudness over measured rows (when at least
 // rules.loudness.minTakes have one), adds Loud/Quiet suspects and sets
 // score = takeScore + their scores.
-void applySetRules(ScanReport& report, const ScanRules& rules);
+// Pronunciation against the set: the word scores of every row that keeps
+// them are calibrated (word_checks.hpp) — or `calibration` is used when
+// given — and each such row gets its pronunciation suspect anew. Rows read
+// back from a CSV have no word scores: they keep the pronunciation suspect
+// they came with, counted at its rule's weight.
+void applySetRules(ScanReport& report, const ScanRules& rules,
+                   const std::optional<WordScoreCalibration>& calibration = std::nullopt);
 
 // Order of the queue: measured rows by score (highest first, compared at the
 // 0.001 written to the CSV), ties by input index; failed rows last, by input index.
 void rankRows(std::vector<ScanRow>& rows);
 
 // applySetRules + rankRows over a finished run.
-ScanReport makeReport(ScanRun run, const ScanRules& rules);
+ScanReport makeReport(ScanRun run, const ScanRules& rules,
+                      const std::optional<WordScoreCalibration>& calibration = std::nullopt);
+
+// The word-score calibration stored in a scan JSON (its
+// "word_score_calibration"), marked as supplied. Throws InputError(path, …)
+// when the file is not a scan JSON or holds no calibration.
+WordScoreCalibration readWordCalibration(const std::string& path);
 
 // One header line, then one CRLF-terminated record per row in ranking order.
 std::string reportToCsv(const ScanReport& report);

@@ -9,6 +9,7 @@
 #include "earmark/longform/findings.hpp"
 #include "earmark/prosody/suspects.hpp"
 #include "earmark/scan/scan_input.hpp"
+#include "earmark/scan/word_checks.hpp"
 
 #include <functional>
 #include <optional>
@@ -27,6 +28,7 @@ struct ScanRow {
     std::vector<TakeSuspect> suspects;     // per-take suspects, then set-level ones (loud/quiet)
     std::vector<Finding> findings;         // long-form findings, for takes of at least
                                            // rules.longform.scanMinTakeSeconds (not scored)
+    TakeWords words;                // word evidence, for takes with text in a voice the model covers
     double takeScore = 0.0;         // score of the per-take suspects
     double score = 0.0;             // takeScore + set-level suspects (applySetRules)
 };
@@ -35,6 +37,7 @@ struct ScanSettings {
     ScanRules rules;
     int jobs = 0;                   // worker threads; 0 = std::thread::hardware_concurrency()
     AnalysisParams analysis = defaultAnalysis();
+    std::string voice = "en-us";    // voice of takes whose manifest row names none (word evidence)
 
     // F0, energy and loudness on; the mel spectrogram off (the scan does not use it).
     static AnalysisParams defaultAnalysis();
@@ -44,7 +47,11 @@ struct ScanSettings {
 // thrown); a bad timings file is noted in the status and the take is
 // measured without it. Takes of at least rules.longform.scanMinTakeSeconds
 // also get the long-form findings (longform/findings.hpp, no chunk list);
-// when those cannot be measured the status says why. Throws Cancelled when `progress` asks to stop.
+// when those cannot be measured the status says why. A take with text whose
+// voice (its own, else settings.voice) the acoustic model covers gets word
+// evidence and the coverage suspects (word_checks.hpp) when any word rule is
+// on; text that cannot be aligned is noted in the status ("ok; words not
+// checked: …"). Throws Cancelled when `progress` asks to stop.
 ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress progress = {});
 
 struct ScanProgress {

@@ -1,0 +1,79 @@
+// Word evidence in the scan: what a scan row keeps of a take's forced
+// alignment with the trained acoustic model (earmark/acoustic/word_evidence.hpp),
+// the coverage suspects of one take (skipped-word, repeated-word,
+// extra-speech, substituted-word, early-end) and the set-level
+// pronunciation suspect.
+//
+// Pronunciation is judged against the set, not a fixed constant: a word is
+// off when its goodness-of-pronunciation score (Witt & Young 2000, Speech
+// Communication 30(2–3):95–108; nats per frame) lies below
+//     limit = median − k × max(MAD, minMad)
+// of all word scores of the set (k = rules.pronunciation.maxMadsBelow). The
+// median absolute deviation is a robust spread (Hampel 1974, JASA 69:383–393);
+// it is used unscaled. A scan sharded with --shard calibrates on the takes
+// of its own shard unless a calibration is supplied (docs/scan.md).
+//
+// Thread-safety: pure functions.
+#pragma once
+
+#include "earmark/acoustic/word_evidence.hpp"
+#include "earmark/prosody/suspects.hpp"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace earmark {
+
+// One spoken word of a take as the scan keeps it.
+struct ScannedWord {
+    std::string label;
+    double startS = 0, endS = 0;
+    double score = 0;           // GOP, nats/frame (<= 0 up to the phone loop's penalties)
+    std::string offPhones;      // the phones most off, e.g. "IH heard as AA, T heard as P"; may be empty
+};
+
+struct TakeWords {
+    std::string method;                     // "model" when word evidence was gathered, else empty
+    bool scoresKnown = false;               // `words` holds every spoken word (false when read back from a CSV)
+    std::vector<ScannedWord> words;         // spoken words in script order (from a CSV: only the lowest)
+    std::vector<CoverageFinding> coverage;  // in time order (from a CSV: kinds and words, times NaN
+                                            // except the early end's start)
+
+    bool gathered() const { return !method.empty(); }
+    // The spoken word with the lowest score, or nullptr.
+    const ScannedWord* lowest() const;
+    // Script words of one coverage kind, in order (Skipped also lists Substituted ones: both are missing).
+    std::vector<std::string> wordsOf(CoverageFinding::Kind kind) const;
+};
+
+// The scan's summary of a word-evidence result.
+TakeWords summariseWords(const WordEvidenceResult& evidence);
+
+// Coverage suspects of one take, one per kind (naming every word of that
+// kind and the first one's time): skipped-word, repeated-word, extra-speech
+// (stretches of at least rules.extraSpeech.minSeconds; value = their total
+// seconds), substituted-word, early-end. Value = words concerned (threshold 0)
+// except extra-speech. Rules switched off raise nothing.
+std::vector<TakeSuspect> coverageSuspects(const TakeWords& words, const ScanRules& rules);
+
+struct WordScoreCalibration {
+    double medianScore = 0;     // nats/frame
+    double mad = 0;             // median absolute deviation, nats/frame (before the floor)
+    std::size_t words = 0;      // scores it was made from
+    bool supplied = false;      // given by the caller rather than measured on this set
+
+    // median − maxMadsBelow × max(mad, minMad)
+    double limit(const PronunciationRule& rule) const;
+};
+
+// Median and MAD of `scores`; nullopt for fewer than rule.minWords scores.
+std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule);
+
+// The pronunciation suspect of one take: its lowest-scoring word when below
+// the calibration's limit, naming the word, its time, the phones most off
+// and the other words below the limit. nullopt otherwise.
+std::optional<TakeSuspect> pronunciationSuspect(const TakeWords& words, const WordScoreCalibration& calibration,
+                                                const ScanRules& rules);
+
+}  // namespace earmark
