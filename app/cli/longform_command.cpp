@@ -7,6 +7,7 @@
 #include "terminal_progress.hpp"
 
 #include "earmark/io/audio_file.hpp"
+#include "earmark/io/text_file.hpp"
 #include "earmark/longform/longform_json.hpp"
 #include "earmark/prosody/rules.hpp"
 
@@ -14,9 +15,7 @@
 #include "earmark/tiers/timings_json.hpp"
 
 #include <cstdio>
-#include <fstream>
 #include <optional>
-#include <sstream>
 
 namespace earmark::cli {
 namespace {
@@ -55,14 +54,6 @@ void printSummary(const std::string& path, const LongformReport& report) {
         std::printf("  %9.2f-%-9.2f %s\n", f.startS, f.endS, f.reason.c_str());
 }
 
-std::string readTextFile(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, "cannot be read");
-    std::ostringstream text;
-    text << in.rdbuf();
-    return text.str();
-}
-
 }  // namespace
 
 int runLongform(const std::vector<std::string>& argv) {
@@ -79,7 +70,7 @@ int runLongform(const std::vector<std::string>& argv) {
     const std::string textFile = args.valueOr("text-file", "");
     if (args.has("tiers") && textFile.empty()) throw UsageError("--tiers needs --text-file");
     std::string text;
-    if (!textFile.empty()) text = readTextFile(textFile);
+    if (!textFile.empty()) text = withoutByteOrderMark(readTextFile(textFile));
 
     LongformReport report;
     std::optional<LongAlignResult> aligned;

@@ -10,17 +10,6 @@
 #include <cstdio>
 
 namespace earmark::cli {
-namespace {
-
-// writeTextOutput ends the text with '\n'; drop the CSV's own final LF so the
-// last record still ends in CRLF (RFC 4180) and no blank line follows.
-std::string csvForOutput(std::string csv) {
-    if (!csv.empty() && csv.back() == '\n') csv.pop_back();
-    return csv;
-}
-
-}  // namespace
-
 int runMerge(const std::vector<std::string>& argv) {
     Arguments args("merge", "OUT PARTS...   (OUT: the merged CSV, - = stdout; PARTS: scan outputs, CSV or JSON)",
                    {
@@ -41,7 +30,7 @@ int runMerge(const std::vector<std::string>& argv) {
     inputs.push_back(args.valueOr("rules", "-"));
     refuseClobbering({{"OUT", pos[0]}, {"--json", json.value_or("-")}, {"--session", args.valueOr("session", "-")}},
                      inputs);
-    writeTextOutput(pos[0], csvForOutput(reportToCsv(merged)));
+    writeCsvOutput(pos[0], reportToCsv(merged));
     if (json) writeTextOutput(*json, reportToJson(merged, rules));
     std::fprintf(stderr, "merge: %zu take(s) from %zu part(s)%s\n", merged.rows.size(), pos.size() - 1,
                  merged.partial ? " (some parts were partial)" : "");

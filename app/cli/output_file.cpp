@@ -39,6 +39,11 @@ void refuseClobbering(const std::vector<std::pair<std::string, std::string>>& ou
     }
 }
 
+void writeCsvOutput(const std::string& path, std::string csv) {
+    if (!csv.empty() && csv.back() == '\n') csv.pop_back();
+    writeTextOutput(path, csv);
+}
+
 void writeTextOutput(const std::string& path, const std::string& text) {
     if (path == "-") {
         std::fwrite(text.data(), 1, text.size(), stdout);

@@ -9,8 +9,13 @@
 
 namespace earmark::cli {
 
-// Throws earmark::Error naming the path when it cannot be written.
+// Throws earmark::WriteError naming the path when it cannot be written.
 void writeTextOutput(const std::string& path, const std::string& text);
+
+// The same for CSV text that ends in its own line end: writeTextOutput adds
+// '\n', so the CSV's final LF is dropped and the last record still ends in
+// CRLF (RFC 4180) with no blank line after it.
+void writeCsvOutput(const std::string& path, std::string csv);
 
 // Whether two paths name one regular file (existing or not yet); "-" and
 // devices are never the same file. For refusing `--out X --json X` and an

@@ -39,13 +39,6 @@ Arguments makeArguments() {
         });
 }
 
-// writeTextOutput ends the text with '\n'; drop the CSV's own final LF so the
-// last record still ends in CRLF (RFC 4180) and no blank line follows.
-std::string csvForOutput(std::string csv) {
-    if (!csv.empty() && csv.back() == '\n') csv.pop_back();
-    return csv;
-}
-
 std::string clock(double seconds) {
     if (!std::isfinite(seconds) || seconds < 0) return "--:--";
     const long s = std::lround(seconds);
@@ -105,7 +98,7 @@ int runScan(const std::vector<std::string>& argv) {
     if (drew) std::fputc('\n', stderr);
     const ScanReport report = makeReport(std::move(run), settings.rules, calibration);
 
-    writeTextOutput(out, csvForOutput(reportToCsv(report)));
+    writeCsvOutput(out, reportToCsv(report));
     if (json) writeTextOutput(*json, reportToJson(report, settings.rules));
     int failed = 0, flagged = 0;
     for (const auto& r : report.rows) {

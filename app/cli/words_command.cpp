@@ -10,14 +10,11 @@
 #include "earmark/acoustic/word_evidence.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
+#include "earmark/io/text_file.hpp"
 
 #include <nlohmann/json.hpp>
 
-#include <cerrno>
 #include <cstdio>
-#include <cstring>
-#include <fstream>
-#include <sstream>
 
 namespace earmark::cli {
 namespace {
@@ -33,16 +30,6 @@ Arguments makeArguments() {
                          {"json", "OUT|-", "", "write scores and coverage as JSON to OUT, or to stdout with -"},
                          {"progress", "", "", "show progress on stderr even when it is not a terminal"},
                      });
-}
-
-std::string readText(const std::string& path) {
-    std::ifstream in(path, std::ios::binary);
-    if (!in) throw InputError(path, std::string("cannot be read: ") + std::strerror(errno));
-    std::ostringstream s;
-    s << in.rdbuf();
-    std::string text = s.str();
-    if (text.rfind("\xEF\xBB\xBF", 0) == 0) text.erase(0, 3);
-    return text;
 }
 
 Json toJson(const std::string& path, const WordEvidenceResult& r) {
@@ -104,7 +91,7 @@ int runWords(const std::vector<std::string>& argv) {
     if (args.has("text") == args.has("text-file")) throw UsageError("give the words with exactly one of --text or --text-file");
     const std::string audioPath = args.positionals().front();
     const std::string textSubject = args.has("text-file") ? *args.value("text-file") : "--text";
-    const std::string text = args.has("text") ? *args.value("text") : readText(*args.value("text-file"));
+    const std::string text = args.has("text") ? *args.value("text") : withoutByteOrderMark(readTextFile(*args.value("text-file")));
     WordEvidenceParams params;
     params.voice = args.valueOr("voice", params.voice);
     if (!modelCoversVoice(params.voice)) {

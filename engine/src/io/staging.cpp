@@ -24,7 +24,8 @@ bool processRuns(long long pid) {
 // The PID in ".ANYTHING.KIND-PID[-SUFFIX]", or -1 when the name has another form.
 long long stagingPid(const std::string& name, std::string_view kind) {
     if (name.size() < 2 || name[0] != '.') return -1;
-    const std::string marker = "." + std::string(kind) + "-";
+    // Built by append: GCC 12 raises a false -Wrestrict on "." + std::string.
+    const std::string marker = std::string(".").append(kind).append("-");
     const auto at = name.rfind(marker);
     if (at == std::string::npos || at == 0) return -1;
     std::size_t i = at + marker.size();
@@ -37,8 +38,9 @@ long long stagingPid(const std::string& name, std::string_view kind) {
 }  // namespace
 
 fs::path stagingPath(const fs::path& target, std::string_view kind) {
-    return target.parent_path() /
-           ("." + target.filename().string() + "." + std::string(kind) + "-" + std::to_string(::getpid()));
+    std::string name(".");
+    name.append(target.filename().string()).append(".").append(kind).append("-").append(std::to_string(::getpid()));
+    return target.parent_path() / name;
 }
 
 std::vector<fs::path> staleStaging(const fs::path& folder, std::string_view kind) {

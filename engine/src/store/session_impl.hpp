@@ -29,4 +29,13 @@ struct Session::Impl {
     int countMarks(TakeId id) const;
 };
 
+// The take columns every reader of the takes table selects, in this order.
+inline constexpr const char* kTakeRowColumns =
+    "queue_pos, audio_path, line_id, text, build, status, status_utc, duration_s, sample_rate, channels, added_utc";
+
+// A take from those columns of `st`, starting at column `first`; `id` and
+// the mark count are the caller's. Throws InputError(dbPath) for a status
+// this version does not know.
+Take takeFromColumns(const store::Statement& st, int first, TakeId id, const std::string& dbPath);
+
 }  // namespace earmark

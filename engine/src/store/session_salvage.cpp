@@ -49,28 +49,11 @@ struct TakeRow {
 
 // One take's row by its id, without the mark count (that would read the marks).
 TakeRow readTakeRow(const store::Db& db, TakeId id) {
-    Statement st(db,
-                 "SELECT queue_pos, audio_path, line_id, text, build, status, status_utc, duration_s, sample_rate, "
-                 "channels, added_utc FROM takes WHERE id = ?1",
-                 "reading a take");
+    Statement st(db, std::string("SELECT ") + kTakeRowColumns + " FROM takes WHERE id = ?1", "reading a take");
     st.bind(1, id);
     TakeRow row;
     if (!st.step()) return row;
-    Take& t = row.take;
-    t.id = id;
-    t.queuePosition = static_cast<int>(st.integer(0));
-    t.storedAudioPath = st.text(1);
-    t.lineId = st.text(2);
-    t.text = st.text(3);
-    t.build = st.text(4);
-    const auto status = parseReviewStatus(st.text(5));
-    if (!status) throw InputError(db.path, "take " + std::to_string(id) + " has an unknown status");
-    t.status = *status;
-    t.statusUtc = st.text(6);
-    t.durationSeconds = st.real(7);
-    t.sampleRate = st.real(8);
-    t.channels = static_cast<int>(st.integer(9));
-    t.addedUtc = st.text(10);
+    row.take = takeFromColumns(st, 0, id, db.path);
     row.found = true;
     return row;
 }

@@ -18,28 +18,12 @@ namespace fs = std::filesystem;
 using store::Statement;
 using store::WriteTransaction;
 
-constexpr const char* kTakeColumns =
-    "SELECT t.id, t.queue_pos, t.audio_path, t.line_id, t.text, t.build, t.status, t.status_utc, "
-    "t.duration_s, t.sample_rate, t.channels, t.added_utc, "
-    "(SELECT count(*) FROM marks m WHERE m.take_id = t.id) FROM takes t ";
+const std::string kTakeColumns = std::string("SELECT t.id, ") + kTakeRowColumns +
+                                 ", (SELECT count(*) FROM marks m WHERE m.take_id = t.id) FROM takes t ";
 
 Take takeFromRow(const Session::Impl& impl, const Statement& st) {
-    Take t;
-    t.id = st.integer(0);
-    t.queuePosition = static_cast<int>(st.integer(1));
-    t.storedAudioPath = st.text(2);
+    Take t = takeFromColumns(st, 1, st.integer(0), impl.db.path);
     t.audioPath = impl.resolveAudioPath(t.storedAudioPath);
-    t.lineId = st.text(3);
-    t.text = st.text(4);
-    t.build = st.text(5);
-    const auto status = parseReviewStatus(st.text(6));
-    if (!status) throw InputError(impl.db.path, "take " + std::to_string(t.id) + " has an unknown status");
-    t.status = *status;
-    t.statusUtc = st.text(7);
-    t.durationSeconds = st.real(8);
-    t.sampleRate = st.real(9);
-    t.channels = static_cast<int>(st.integer(10));
-    t.addedUtc = st.text(11);
     t.markCount = static_cast<int>(st.integer(12));
     return t;
 }
@@ -82,7 +66,7 @@ std::string Session::Impl::resolveAudioPath(const std::string& stored) const {
 }
 
 Take Session::Impl::readTake(TakeId id) const {
-    Statement st(db, std::string(kTakeColumns) + "WHERE t.id = ?1", "reading a take");
+    Statement st(db, kTakeColumns + "WHERE t.id = ?1", "reading a take");
     st.bind(1, id);
     if (!st.step()) throw InputError(db.path, "has no take with id " + std::to_string(id));
     return takeFromRow(*this, st);
@@ -159,7 +143,7 @@ std::vector<TakeId> Session::addTakes(const std::vector<NewTake>& newTakes) {
 }
 
 std::vector<Take> Session::takes() const {
-    Statement st(impl_->db, std::string(kTakeColumns) + "ORDER BY t.queue_pos, t.id", "listing takes");
+    Statement st(impl_->db, kTakeColumns + "ORDER BY t.queue_pos, t.id", "listing takes");
     std::vector<Take> out;
     while (st.step()) out.push_back(takeFromRow(*impl_, st));
     return out;
@@ -304,6 +288,25 @@ std::vector<TierRow> Session::tiers(TakeId id) const {
     store::ReadTransaction read(impl_->db);
     impl_->readTake(id);
     return impl_->readTiers(id);
+}
+
+Take takeFromColumns(const Statement& st, int first, TakeId id, const std::string& dbPath) {
+    Take t;
+    t.id = id;
+    t.queuePosition = static_cast<int>(st.integer(first));
+    t.storedAudioPath = st.text(first + 1);
+    t.lineId = st.text(first + 2);
+    t.text = st.text(first + 3);
+    t.build = st.text(first + 4);
+    const auto status = parseReviewStatus(st.text(first + 5));
+    if (!status) throw InputError(dbPath, "take " + std::to_string(id) + " has an unknown status");
+    t.status = *status;
+    t.statusUtc = st.text(first + 6);
+    t.durationSeconds = st.real(first + 7);
+    t.sampleRate = st.real(first + 8);
+    t.channels = static_cast<int>(st.integer(first + 9));
+    t.addedUtc = st.text(first + 10);
+    return t;
 }
 
 }  // namespace earmark
