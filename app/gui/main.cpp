@@ -1,4 +1,4 @@
-// earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--screenshot PATH [--size WxH]]
+// earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--voice VOICE] [--screenshot PATH [--size WxH]]
 //         [--view START:END] [--select START:END] [--predicted-mel FILE.npy]
 //         [--attention FILE.npy --tokens FILE]
 // earmark SESSION.earmark --rate TEST [--rater NAME] [--screenshot PATH [--size WxH]]
@@ -91,7 +91,11 @@ int main(int argc, char** argv) {
                                   QStringLiteral("TEST"));
     const QCommandLineOption rater(QStringLiteral("rater"), QStringLiteral("With --rate: start (or resume) as this rater."),
                                    QStringLiteral("NAME"));
-    parser.addOptions({screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
+    const QCommandLineOption voice(QStringLiteral("voice"),
+                                   QStringLiteral("espeak-ng voice the texts are read in (default en-us); word evidence "
+                                                  "is shown when the acoustic model covers it."),
+                                   QStringLiteral("VOICE"));
+    parser.addOptions({voice, screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
                        rate, rater});
     parser.process(app);
 
@@ -185,12 +189,14 @@ int main(int argc, char** argv) {
     }
 
     earmark::gui::MainWindow window;
+    if (parser.isSet(voice)) window.setVoice(parser.value(voice));
     if (range || selection) window.setInitialView(range, selection);
     int exitCode = 0;
     if (shooting) {
         const QString path = parser.value(screenshot);
         // Shoot once the take and (when asked for) the predicted mel have settled.
-        auto pending = std::make_shared<int>(1 + parser.isSet(predictedMel) + parser.isSet(attention));
+        // Word evidence always settles once the take's audio is in (shown, or not to be had).
+        auto pending = std::make_shared<int>(2 + parser.isSet(predictedMel) + parser.isSet(attention));
         auto allOk = std::make_shared<bool>(true);
         auto settle = [&, path, pending, allOk](bool ok, const QString& message) {
             if (*pending <= 0) return;  // already shot
@@ -214,6 +220,9 @@ int main(int argc, char** argv) {
         };
         QObject::connect(&window, &earmark::gui::MainWindow::takeSettled, &app, settle);
         QObject::connect(&window, &earmark::gui::MainWindow::modelSettled, &app, settle);
+        // No evidence (no text, a voice the model does not cover) is not a failure of the picture.
+        QObject::connect(&window, &earmark::gui::MainWindow::evidenceSettled, &app,
+                         [settle](bool, const QString&) { settle(true, {}); });
         window.resize(windowSize);
     }
     window.show();

@@ -86,6 +86,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
 
     buildStatusBar();
     buildSessionPanels();
+    buildEvidence();
     buildActions();
     help_ = new HelpOverlay(menuBar(), this);
 
@@ -266,6 +267,8 @@ void MainWindow::selectTake(int row) {
     tiers_ = {};
     timingsPath_.clear();
     closeModelLanes();
+    evidenceLoader_->cancel();
+    clearWordEvidence({});
     showTiers();
     showMarks();
     player_->setTake(nullptr);
@@ -321,6 +324,7 @@ void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
     updateTakeInfo();
     updateSessionActions();
     startModelMel();
+    startWordEvidence();
 }
 
 void MainWindow::onTracks(quint64, TakeTracksPtr tracks) {
@@ -427,6 +431,7 @@ void MainWindow::dropEvent(QDropEvent* event) {
 void MainWindow::closeEvent(QCloseEvent* event) {
     player_->stop();
     loader_->cancel();
+    evidenceLoader_->cancel();
     QSettings q;
     stack_->saveLayout(q);
     q.setValue("window/geometry", saveGeometry());

@@ -5,6 +5,7 @@
 
 #include "earmark/align/text_aligner.hpp"
 #include "earmark/marks/mark.hpp"
+#include "earmark/store/suspect.hpp"
 #include "earmark/store/take.hpp"
 #include "earmark/tiers/tier.hpp"
 #include "earmark/widgets/analysis_settings.hpp"
@@ -13,6 +14,7 @@
 #include "earmark/widgets/take_data.hpp"
 #include "earmark/widgets/take_list.hpp"
 #include "earmark/widgets/time_mapping.hpp"
+#include "earmark/widgets/word_evidence_loader.hpp"
 
 #include <QMainWindow>
 #include <QTimer>
@@ -52,6 +54,7 @@ class PitchLane;
 class SpectrogramLane;
 class TakeLoader;
 class ViewState;
+class WordEvidencePanel;
 }  // namespace earmark::widgets
 
 namespace earmark::gui {
@@ -81,6 +84,11 @@ public:
     void openAttention(const QString& npyPath, const QString& tokensPath);
     widgets::AttentionLane* attentionLane() const { return attentionLane_; }
     widgets::TierLane* tokensLane() const { return tokensLane_; }
+    // The espeak-ng voice the takes' texts are read in (default "en-us"):
+    // word evidence is gathered when the acoustic model covers it.
+    void setVoice(const QString& voice) { voice_ = voice; }
+    widgets::WordEvidencePanel* wordPanel() const { return wordPanel_; }
+    const widgets::WordEvidencePtr& wordEvidence() const { return evidence_; }
     // Reads a timings file as the current take's tiers (undoable).
     bool openTimings(const QString& path);
     // Applied once, when the next take's audio arrives (for --view, --select).
@@ -110,6 +118,8 @@ signals:
     void takeSettled(bool ok, const QString& message);
     // The predicted mel asked for is shown (ok) or could not be read or compared.
     void modelSettled(bool ok, const QString& message);
+    // The current take's word evidence is shown (ok) or cannot be had (why).
+    void evidenceSettled(bool ok, const QString& message);
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -175,6 +185,12 @@ private:
     void onAttention(widgets::ModelAttentionPtr attention);
     // Lanes that come and go with a model's output (not in the Lanes menu).
     bool isModelLane(const QString& id) const;
+    // Word evidence of the current take (main_window_evidence.cpp).
+    void buildEvidence();
+    void startWordEvidence();
+    void onWordEvidence(quint64 request, widgets::WordEvidencePtr evidence);
+    void clearWordEvidence(const QString& why);
+    std::vector<Suspect> evidenceSuspectsShown() const;
     // A message in the status bar, cleared after `milliseconds` (0: kept).
     void notify(const QString& text, int milliseconds = 0);
 
@@ -233,6 +249,13 @@ private:
     widgets::TakeTracksPtr tracks_;
     std::optional<widgets::TimeRange> initialView_;
     std::optional<widgets::TimeRange> initialSelection_;
+
+    widgets::WordEvidenceLoader* evidenceLoader_ = nullptr;
+    widgets::WordEvidencePanel* wordPanel_ = nullptr;
+    widgets::WordEvidencePtr evidence_;  // of the current take
+    QString voice_ = QStringLiteral("en-us");
+    QProgressBar* evidenceProgress_ = nullptr;
+    QToolButton* evidenceStop_ = nullptr;
 };
 
 }  // namespace earmark::gui

@@ -3,6 +3,7 @@
 // change to marks and tiers goes through the one undo stack.
 #include "main_window.hpp"
 
+#include "earmark/acoustic/evidence_review.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/store/tier_rows.hpp"
 #include "earmark/tiers/timings_csv.hpp"
@@ -171,13 +172,13 @@ MeasureSnapshot MainWindow::measuresFor(double start, double end) const {
 void MainWindow::showMarks() {
     markLane_->setHint(session_ ? tr("no marks: select a span or a word, then press N")
                                 : tr("marks are kept in a session (File ▸ Open session…)"));
-    suspectLane_->setHint(session_ ? tr("no suspects from the scan") : tr("suspects come with a scanned session"));
+    suspectLane_->setHint(session_ ? tr("no suspects from the scan") : tr("suspects come with a scanned session or the take's text"));
     if (session_ && currentTake_) {
         markLane_->setMarks(session_->marks(*currentTake_));
-        suspectLane_->setSuspects(session_->suspects(*currentTake_));
+        suspectLane_->setSuspects(mergeSuspects(session_->suspects(*currentTake_), evidenceSuspectsShown()));
     } else {
         markLane_->setMarks({});
-        suspectLane_->setSuspects({});
+        suspectLane_->setSuspects(evidenceSuspectsShown());
     }
     if (selectedMark_ && session_) {
         const auto m = session_->mark(*selectedMark_);

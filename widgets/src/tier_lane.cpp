@@ -1,6 +1,7 @@
 #include "earmark/widgets/tier_lane.hpp"
 
 #include "earmark/widgets/axis_painting.hpp"
+#include "earmark/widgets/word_score_look.hpp"
 
 #include <QLineEdit>
 #include <QMouseEvent>
@@ -29,8 +30,13 @@ void TierLane::setTier(const Tier& tier) {
     invalidateContent();
 }
 
+void TierLane::setScoreMarks(std::vector<WordScoreMark> marks) {
+    scoreMarks_ = std::move(marks);
+    invalidateContent();
+}
+
 void TierLane::drawContent(QPainter& p) {
-    if (!drawFrame(p, !tier_.intervals.empty())) return;
+    if (!drawFrame(p, !tier_.intervals.empty() || !scoreMarks_.empty())) return;
     const LaneColours c = colours();
     const QRect plot = plotRect();
     const TimeMapping m = mapping();
@@ -57,17 +63,55 @@ void TierLane::drawContent(QPainter& p) {
         const QString label = fm.elidedText(QString::fromStdString(in.label), Qt::ElideRight, room);
         p.drawText(r.adjusted(2, 0, -2, 0), Qt::AlignCenter, label);
     }
+    drawScoreMarks(p);
+}
+
+void TierLane::drawScoreMarks(QPainter& p) {
+    const QRect plot = plotRect();
+    const TimeMapping m = mapping();
+    for (const WordScoreMark& w : scoreMarks_) {
+        if (w.endS < m.range.start || w.startS > m.range.end) continue;
+        const double x0 = plot.left() + m.timeToX(w.startS), x1 = plot.left() + m.timeToX(w.endS);
+        const QColor colour = wordScoreColour(w.cls);
+        const int strip = wordScoreStripPixels(w.cls);
+        const QRectF whole(x0 + 1, plot.top() + 2, std::max(1.0, x1 - x0 - 2), plot.height() - 4);
+        if (w.cls == WordScoreClass::Poor || w.cls == WordScoreClass::Unspoken) {
+            QColor tint = colour;
+            tint.setAlpha(w.cls == WordScoreClass::Poor ? 60 : 40);
+            p.fillRect(whole, tint);
+        }
+        if (w.cls == WordScoreClass::Unspoken) {
+            p.fillRect(whole, QBrush(colour, Qt::DiagCrossPattern));
+            QFont f = p.font();
+            f.setItalic(true);
+            f.setStrikeOut(true);
+            p.setFont(f);
+            p.setPen(colours().text);
+            p.drawText(whole, Qt::AlignCenter, w.label);
+            p.setFont(font());
+        }
+        p.fillRect(QRectF(whole.left(), whole.bottom() - strip, whole.width(), strip), colour);
+        if (w.guessed) {
+            p.setPen(QPen(colour, 2, Qt::DotLine));
+            p.drawLine(QPointF(whole.left(), whole.top() + 1), QPointF(whole.right(), whole.top() + 1));
+        }
+    }
 }
 
 QString TierLane::describePoint(QPoint pos) const {
-    const int i = intervalAt(tier_, timeAtX(pos.x()));
-    if (i < 0) return {};
+    const double t = timeAtX(pos.x());
+    QString score;
+    for (const WordScoreMark& w : scoreMarks_)
+        if (t >= w.startS && t < w.endS) score = w.detail;
+    const int i = intervalAt(tier_, t);
+    if (i < 0) return score;
     const Interval& in = tier_.intervals[static_cast<std::size_t>(i)];
     QString s = tr("%1 “%2” %3–%4 s")
                     .arg(tierName_, QString::fromStdString(in.label))
                     .arg(in.startS, 0, 'f', 3)
                     .arg(in.endS, 0, 'f', 3);
     if (in.confidence) s += tr(", confidence %1").arg(*in.confidence, 0, 'f', 2);
+    if (!score.isEmpty()) s += " · " + score;
     return s;
 }
 

@@ -10,6 +10,7 @@
 // calls setTier() back.
 #pragma once
 
+#include "earmark/acoustic/evidence_review.hpp"
 #include "earmark/tiers/tier.hpp"
 #include "earmark/widgets/span_lane.hpp"
 #include "earmark/widgets/tier_editing.hpp"
@@ -19,6 +20,17 @@
 class QLineEdit;
 
 namespace earmark::widgets {
+
+// A word's pronunciation score drawn under the tier (word_score_look.hpp):
+// a strip along the bottom of its span, thicker and warmer as the score
+// falls; words not said as written are cross-hatched with their script word.
+struct WordScoreMark {
+    double startS = 0, endS = 0;
+    WordScoreClass cls = WordScoreClass::Good;
+    bool guessed = false;  // phones guessed (not in the dictionary): dotted line on top
+    QString label;         // the script word
+    QString detail;        // one line for the tooltip: score, class, guessed
+};
 
 // Below this word confidence (0…1) an interval is drawn as doubtful.
 inline constexpr double kLowConfidence = 0.5;
@@ -35,6 +47,9 @@ public:
     const QString& tierName() const { return tierName_; }
     void setTier(const Tier& tier);  // an empty tier (no intervals) shows a hint
     const Tier& tier() const { return tier_; }
+    // Word scores to draw over the tier (empty: none).
+    void setScoreMarks(std::vector<WordScoreMark> marks);
+    const std::vector<WordScoreMark>& scoreMarks() const { return scoreMarks_; }
     // Where boundaries land when dragged: identity when not set.
     void setSnap(std::function<double(double)> snap) { snap_ = std::move(snap); }
     // Opens an in-place editor over interval `index`.
@@ -56,10 +71,12 @@ protected:
 
 private:
     std::optional<TierBoundary> boundaryNear(double x) const;
+    void drawScoreMarks(QPainter& painter);
     void selectInterval(int index);
 
     QString tierName_;
     Tier tier_;
+    std::vector<WordScoreMark> scoreMarks_;
     std::function<double(double)> snap_;
     std::optional<TierBoundary> dragging_;
     double dragTime_ = 0.0;
