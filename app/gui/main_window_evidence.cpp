@@ -6,6 +6,7 @@
 #include "main_window.hpp"
 
 #include "earmark/acoustic/evidence_review.hpp"
+#include "earmark/acoustic/evidence_trust.hpp"
 #include "earmark/widgets/suspect_lane.hpp"
 #include "earmark/widgets/tier_lane.hpp"
 #include "earmark/widgets/view_state.hpp"
@@ -85,6 +86,13 @@ void MainWindow::startWordEvidence() {
 }
 
 void MainWindow::onWordEvidence(quint64, WordEvidencePtr evidence) {
+    if (const std::string doubt = evidenceDoubt(*evidence); !doubt.empty()) {
+        const QString why = tr("Word evidence: %1.").arg(QString::fromStdString(doubt));
+        clearWordEvidence(why);
+        notify(why, 8000);
+        emit evidenceSettled(false, why);
+        return;
+    }
     evidence_ = std::move(evidence);
     // A take without a word tier gets the model's tiers to look at.
     if (!tiers_.find(kWordsTier)) {

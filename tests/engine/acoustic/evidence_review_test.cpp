@@ -3,6 +3,7 @@
 // festival voices (tests/data/evidence/render_festival_takes.py): the word
 // with a planted changed vowel must stand out, clean takes must not.
 #include "earmark/acoustic/evidence_review.hpp"
+#include "earmark/acoustic/evidence_trust.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
 #include "support/festival_takes.hpp"
@@ -139,6 +140,28 @@ TEST(EvidenceReview, CleanFestivalTakesRaiseAtMostOneSuspectPerTwelve) {
     EXPECT_LE(suspects, 1);
     std::printf("[ figures  ] clean takes: %d suspects over %d takes; %d of %d words poor, %d doubtful\n", suspects,
                 takes, poor, words, doubtful);
+}
+
+}  // namespace
+}  // namespace earmark
+
+namespace earmark {
+namespace {
+
+// Festival takes are placed whole; the demo's own takes (samples/, a
+// formant voice with warped prosody) are not, and say so instead of
+// raising a suspect per word.
+TEST(EvidenceTrust, FestivalTakesAreShownDemoFormantTakesAreDoubted) {
+    const WordEvidenceResult clean = evidenceOf("kal-02.wav");
+    EXPECT_DOUBLE_EQ(placedShare(clean), 1.0);
+    EXPECT_EQ(evidenceDoubt(clean), "");
+    EXPECT_EQ(evidenceDoubt(evidenceOf("ked-fault-cut.wav")), "");  // a cut take is still shown, with its early end
+    const WordEvidenceResult demo = gatherWordEvidence(
+        loadAudio(std::string(EARMARK_SOURCE_DIR) + "/samples/takes/ferry-001.wav").signal,
+        "Good morning, and welcome aboard the seven fifteen crossing to Wrenholm.");
+    EXPECT_LT(placedShare(demo), kMinPlacedShare);
+    EXPECT_NE(evidenceDoubt(demo).find("placed only"), std::string::npos);
+    EXPECT_DOUBLE_EQ(placedShare(WordEvidenceResult{}), 0.0);
 }
 
 }  // namespace
