@@ -37,7 +37,7 @@ struct EvidenceWindow : ::testing::Test {
         const fs::path wav = test::festivalTakes() / name;
         QSignalSpy settled(&window, &gui::MainWindow::evidenceSettled);
         window.openTakes({TakeEntry{QString::fromStdString(name), QString::fromStdString(wav.string()),
-                                    QString::fromStdString(test::scriptOf(wav))}});
+                                    QString::fromStdString(test::firstLine(fs::path(wav).replace_extension(".txt")))}});
         return settled.wait(60000) && settled.last().at(0).toBool();
     }
 };

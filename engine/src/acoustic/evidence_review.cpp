@@ -67,7 +67,15 @@ int wordAt(const WordEvidenceResult& evidence, double t) {
 }
 
 std::string coverageSuspectName(CoverageFinding::Kind kind) {
-    return std::string("coverage-") + coverageKindName(kind);
+    // The scan's names (prosody/suspects.cpp), so a scanned session's own are recognised.
+    switch (kind) {
+        case CoverageFinding::Kind::Skipped: return "skipped-word";
+        case CoverageFinding::Kind::Repeated: return "repeated-word";
+        case CoverageFinding::Kind::Extra: return "extra-speech";
+        case CoverageFinding::Kind::EarlyEnd: return "early-end";
+        case CoverageFinding::Kind::Substituted: return "substituted-word";
+    }
+    return coverageKindName(kind);
 }
 
 namespace {

@@ -78,14 +78,14 @@ TEST(EvidenceReview, PhoneRowsListExpectedAndHeardWithTheWorstMarked) {
 }
 
 TEST(EvidenceReview, MergedSuspectsKeepStoredOnesAndDropRepeats) {
-    const std::vector<Suspect> stored = {{.name = "coverage-skipped", .startSeconds = 1.0, .endSeconds = 1.2, .reason = ""}};
-    const std::vector<Suspect> computed = {{.name = "coverage-skipped", .startSeconds = 1.1, .endSeconds = 1.1, .reason = ""},
-                                           {.name = "coverage-skipped", .startSeconds = 2.0, .endSeconds = 2.1, .reason = ""},
-                                           {.name = "word-score", .startSeconds = 1.0, .endSeconds = 1.2, .reason = ""}};
+    const std::vector<Suspect> stored = {{.name = "skipped-word", .startSeconds = 1.0, .endSeconds = 1.2, .reason = ""}};
+    const std::vector<Suspect> computed = {{.name = "skipped-word", .startSeconds = 1.1, .endSeconds = 1.1, .reason = ""},
+                                           {.name = "skipped-word", .startSeconds = 2.0, .endSeconds = 2.1, .reason = ""},
+                                           {.name = "pronunciation", .startSeconds = 1.0, .endSeconds = 1.2, .reason = ""}};
     const std::vector<Suspect> merged = mergeSuspects(stored, computed);
     ASSERT_EQ(merged.size(), 3u);
     EXPECT_DOUBLE_EQ(merged[1].startSeconds, 2.0);
-    EXPECT_EQ(merged[2].name, "word-score");
+    EXPECT_EQ(merged[2].name, "pronunciation");
 }
 
 // The changed vowel ("bread" said as "broad") stands out in every voice:

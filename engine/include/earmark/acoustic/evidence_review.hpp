@@ -61,8 +61,10 @@ std::vector<PhoneRow> phoneRows(const WordEvidence& word);
 // place) holds time t (seconds), else -1.
 int wordAt(const WordEvidenceResult& evidence, double t);
 
-// Suspect names raised from word evidence ("coverage-<kind>", "word-score").
-inline constexpr const char* kWordScoreSuspect = "word-score";
+// Suspect names raised from word evidence: the scan's ("skipped-word",
+// "repeated-word", "extra-speech", "early-end", "substituted-word",
+// "pronunciation"), so mergeSuspects recognises a scanned session's own.
+inline constexpr const char* kWordScoreSuspect = "pronunciation";
 std::string coverageSuspectName(CoverageFinding::Kind kind);
 
 // One suspect per coverage finding (value: its length in seconds, reason:
