@@ -107,6 +107,8 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
         emit modelSettled(false, message);
     });
     connect(player_, &AudioPlayer::message, this, [this](const QString& m) { notify(m, 5000); });
+    connect(player_, &AudioPlayer::rateOrLoopChanged, this, &MainWindow::showPlaybackState);
+    showPlaybackState();
     connect(stack_, &LaneStack::pointDescribed, readout_, &HoverReadout::setLaneDetail);
 
     if (Lane* wave = stack_->lane("waveform"))
@@ -211,6 +213,9 @@ void MainWindow::buildStatusBar() {
     connect(&messageTimer_, &QTimer::timeout, this, [this] { notify({}); });
     takeInfo_ = new QLabel(this);
     statusBar()->addPermanentWidget(takeInfo_);
+    playbackState_ = new QLabel(this);
+    playbackState_->setObjectName("playbackState");
+    statusBar()->addPermanentWidget(playbackState_);
     progress_ = new QProgressBar(this);
     progress_->setRange(0, 100);
     progress_->setMaximumWidth(160);
@@ -399,6 +404,31 @@ void MainWindow::exportView() {
 }
 
 void MainWindow::play(int mode) { player_->play(static_cast<PlayMode>(mode)); }
+
+void MainWindow::auditionSuspect() {
+    const Suspect* s = suspectLane_->suspectFor(view_->selection(), view_->cursor());
+    if (!s) {
+        notify(tr("No suspect here: click one in the suspects lane first."), 5000);
+        return;
+    }
+    view_->setSelection(TimeRange{s->startSeconds, s->endSeconds});
+    notify(tr("Hearing %1 (%2–%3 s) at %4×")
+               .arg(QString::fromStdString(s->name))
+               .arg(s->startSeconds, 0, 'f', 3)
+               .arg(s->endSeconds, 0, 'f', 3)
+               .arg(player_->rate()),
+           5000);
+    player_->play(PlayMode::LoopSelection);
+}
+
+void MainWindow::showPlaybackState() {
+    playbackState_->setText(tr("speed %1× · %2").arg(player_->rate()).arg(player_->looping() ? tr("repeat") : tr("once")));
+    playbackState_->setToolTip(tr("Playback speed keeps the pitch. %1 / %2 change it, %3 repeats the selection.")
+                                   .arg(QKeySequence(Qt::Key_Down).toString(QKeySequence::NativeText),
+                                        QKeySequence(Qt::Key_Up).toString(QKeySequence::NativeText),
+                                        QKeySequence(Qt::Key_R).toString(QKeySequence::NativeText)));
+    if (loopToggle_ && loopToggle_->isChecked() != player_->looping()) loopToggle_->setChecked(player_->looping());
+}
 
 void MainWindow::adjustSpectrogram(double floorStep, double rangeStep) {
     SpectrogramLook l = spectrogram_->look();

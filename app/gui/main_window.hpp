@@ -98,6 +98,7 @@ public:
     }
     widgets::LaneStack* laneStack() const { return stack_; }
     widgets::ViewState* viewState() const { return view_; }
+    widgets::AudioPlayer* player() const { return player_; }
     widgets::SessionDocument* session() const { return session_; }
     widgets::ReviewQueue* reviewQueue() const { return queue_; }
     widgets::MarkPalette* markPalette() const { return palette_; }
@@ -173,6 +174,9 @@ private:
     void editSettings();
     void exportView();
     void play(int mode);
+    // Selects the suspect under the selection (or the cursor) and loops its span at the chosen rate.
+    void auditionSuspect();
+    void showPlaybackState();
     void adjustSpectrogram(double floorStep, double rangeStep);
     void updateTakeInfo();
     void openPredictedMelDialog();
@@ -213,6 +217,8 @@ private:
     QProgressBar* progress_ = nullptr;
     QToolButton* cancelButton_ = nullptr;
     QLabel* takeInfo_ = nullptr;
+    QLabel* playbackState_ = nullptr;  // rate and loop, always visible
+    QAction* loopToggle_ = nullptr;
     QLabel* message_ = nullptr;
     QTimer messageTimer_;
     std::vector<QAction*> playActions_;

@@ -141,6 +141,14 @@ void MainWindow::buildActions() {
     playActions_.push_back(addAction(play, tr("Loop selection"), QKeySequence(Qt::Key_L),
                                      [this] { this->play(static_cast<int>(PlayMode::LoopSelection)); }));
     playActions_.push_back(addAction(play, tr("Stop"), QKeySequence(Qt::Key_Period), [this] { player_->stop(); }));
+    play->addSeparator();
+    // Speed and loop are settings, not playback: they work without a device.
+    addAction(play, tr("Slower"), QKeySequence(Qt::Key_Down), [this] { player_->setRate(stepPlaybackRate(player_->rate(), -1)); });
+    addAction(play, tr("Faster"), QKeySequence(Qt::Key_Up), [this] { player_->setRate(stepPlaybackRate(player_->rate(), 1)); });
+    addAction(play, tr("Speed as recorded (1×)"), QKeySequence(Qt::Key_1), [this] { player_->setRate(1.0); });
+    loopToggle_ = addToggle(play, tr("Repeat the selection when playing it"), QKeySequence(Qt::Key_R), false,
+                            [this](bool on) { player_->setLooping(on); });
+    addAction(play, tr("Hear the suspect, looped at the chosen speed"), QKeySequence(Qt::Key_H), [this] { auditionSuspect(); });
 
     QMenu* lanes = menuBar()->addMenu(tr("&Lanes"));
     int n = 1;

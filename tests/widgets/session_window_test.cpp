@@ -6,6 +6,7 @@
 #include "demo_session.hpp"
 #include "mouse_drag.hpp"
 #include "earmark/widgets/align_dialog.hpp"
+#include "earmark/widgets/audio_player.hpp"
 #include "earmark/store/tier_rows.hpp"
 #include "earmark/widgets/lane_stack.hpp"
 #include "earmark/widgets/mark_inspector.hpp"
@@ -21,6 +22,7 @@
 
 #include <QApplication>
 #include <QComboBox>
+#include <QLabel>
 #include <QLineEdit>
 #include <QPlainTextEdit>
 #include <QSignalSpy>
@@ -260,6 +262,52 @@ TEST_F(SessionWindow, ATakeWithMissingAudioSaysSoAndOffersToLocateIt) {
     ASSERT_TRUE(settles([&] { key(Qt::Key_Down, Qt::AltModifier); }));
     EXPECT_GT(window.viewState()->duration(), 0.0);
     EXPECT_FALSE(locate->isVisible());
+}
+
+}  // namespace
+}  // namespace earmark::widgets
+
+namespace earmark::widgets {
+namespace {
+
+// Close listening without a sound card: speed and repeat are settings shown in
+// the status bar; hearing a suspect selects its span and degrades to a message.
+TEST_F(SessionWindow, SpeedRepeatAndHearingASuspectWorkWithoutADevice) {
+    ASSERT_TRUE(settles([&] {
+        ASSERT_TRUE(window.openSession(demo.path));
+        ASSERT_TRUE(window.showSessionTake("ferry-005"));
+    }));
+    auto* state = window.findChild<QLabel*>("playbackState");
+    ASSERT_NE(state, nullptr);
+    EXPECT_TRUE(state->text().contains(QString::fromUtf8("1×")));
+    key(Qt::Key_Down);
+    key(Qt::Key_Down);
+    EXPECT_TRUE(state->text().contains(QString::fromUtf8("0.7×"))) << state->text().toStdString();
+    for (int i = 0; i < 12; ++i) key(Qt::Key_Down);
+    EXPECT_TRUE(state->text().contains(QString::fromUtf8("0.25×")));  // the ladder's foot
+    for (int i = 0; i < 12; ++i) key(Qt::Key_Up);
+    EXPECT_TRUE(state->text().contains(QString::fromUtf8("2×")));
+    key(Qt::Key_1);
+    EXPECT_TRUE(state->text().contains(QString::fromUtf8("1×")));
+    key(Qt::Key_Down);
+    key(Qt::Key_Down);
+    key(Qt::Key_Down);  // 0.5×
+    EXPECT_TRUE(state->text().contains("once"));
+    key(Qt::Key_R);
+    EXPECT_TRUE(state->text().contains("repeat"));
+
+    const auto& suspects = window.suspectLane()->suspects();
+    ASSERT_FALSE(suspects.empty());
+    window.viewState()->setSelection(std::nullopt);
+    window.viewState()->setCursor(suspects.back().startSeconds + 1e-4);
+    key(Qt::Key_H);
+    ASSERT_TRUE(window.viewState()->selection());
+    const Suspect* heard = window.suspectLane()->suspectFor(std::nullopt, suspects.back().startSeconds + 1e-4);
+    ASSERT_NE(heard, nullptr);
+    EXPECT_DOUBLE_EQ(window.viewState()->selection()->start, heard->startSeconds);
+    EXPECT_DOUBLE_EQ(window.viewState()->selection()->end, heard->endSeconds);
+    EXPECT_FALSE(window.player()->playing());  // no device here: a message instead, and no crash
+    EXPECT_TRUE(state->text().contains(QString::fromUtf8("0.5×")));
 }
 
 }  // namespace

@@ -74,18 +74,6 @@ TEST(Transport, LoopWrapsAtTheSelectionEnd) {
     EXPECT_FALSE(t.advance(1.0));
 }
 
-TEST(Transport, SourceFramesStayInsideTheSegment) {
-    Transport t;
-    const double rate = 1000.0;
-    ASSERT_TRUE(t.start(PlayMode::Selection, context()));
-    EXPECT_EQ(*t.sourceFrame(0, rate), 4000);
-    EXPECT_EQ(*t.sourceFrame(1999, rate), 5999);
-    EXPECT_FALSE(t.sourceFrame(2000, rate));
-    ASSERT_TRUE(t.start(PlayMode::LoopSelection, context()));
-    EXPECT_EQ(*t.sourceFrame(2000, rate), 4000);
-    EXPECT_EQ(*t.sourceFrame(4321, rate), 4321 % 2000 + 4000);
-}
-
 TEST(Transport, StartWithNothingToPlayStaysStopped) {
     Transport t;
     PlayContext c = context();

@@ -1,5 +1,8 @@
 #include "earmark/widgets/audio_player.hpp"
 
+#include "earmark/core/error.hpp"
+#include "earmark/playback/playback_stream.hpp"
+
 #include <QAudioDevice>
 #include <QAudioSink>
 #include <QIODevice>
@@ -7,40 +10,53 @@
 
 #include <algorithm>
 #include <cstring>
+#include <vector>
 
 namespace earmark::widgets {
 
-// Feeds the sink with the samples the transport asks for, as float32 mono.
+// Feeds the sink with what the stream renders (the segment time-stretched
+// to the transport's rate, loops cross-faded), as float32 mono.
 class SegmentSource : public QIODevice {
 public:
-    SegmentSource(const Transport& transport, TakeAudioPtr take) : transport_(transport), take_(std::move(take)) {}
+    SegmentSource(TakeAudioPtr take, const PlaybackSpan& span, const PlaybackParams& params)
+        : take_(std::move(take)), stream_(take_->signal, span, params) {}
+    const PlaybackStream& stream() const { return stream_; }
 
 protected:
     qint64 readData(char* data, qint64 maxBytes) override {
-        const qint64 frames = maxBytes / static_cast<qint64>(sizeof(float));
-        const auto& x = take_->signal.samples;
-        qint64 n = 0;
-        for (; n < frames; ++n) {
-            const auto src = transport_.sourceFrame(next_ + n, take_->signal.sampleRate);
-            if (!src || *src >= static_cast<std::int64_t>(x.size())) break;
-            const float v = x[static_cast<std::size_t>(*src)];
-            std::memcpy(data + n * sizeof(float), &v, sizeof(float));
-        }
-        next_ += n;
-        return n * static_cast<qint64>(sizeof(float));
+        const auto frames = static_cast<std::size_t>(maxBytes / static_cast<qint64>(sizeof(float)));
+        buffer_.resize(frames);
+        const std::size_t n = stream_.read(buffer_.data(), frames);
+        std::memcpy(data, buffer_.data(), n * sizeof(float));
+        return static_cast<qint64>(n * sizeof(float));
     }
     qint64 writeData(const char*, qint64) override { return -1; }
     bool isSequential() const override { return true; }
 
 private:
-    const Transport& transport_;
-    TakeAudioPtr take_;
-    std::int64_t next_ = 0;
+    TakeAudioPtr take_;  // keeps the samples the stream reads alive
+    PlaybackStream stream_;
+    std::vector<float> buffer_;
 };
+
+namespace {
+constexpr double loopCrossfadeSeconds = 0.01;  // short enough not to blur a 40 ms fault; common practice
+}
+
+void AudioPlayer::setRate(double rate) {
+    transport_.setRate(rate);
+    emit rateOrLoopChanged();
+}
+
+void AudioPlayer::setLooping(bool on) {
+    transport_.setLooping(on);
+    emit rateOrLoopChanged();
+}
 
 AudioPlayer::AudioPlayer(ViewState* view, QObject* parent) : QObject(parent), view_(view) {
     if (QMediaDevices::defaultAudioOutput().isNull())
         unavailableReason_ = tr("No audio output device: playback is off.");
+    transport_.setLoopCrossfade(loopCrossfadeSeconds);
     timer_.setInterval(25);
     connect(&timer_, &QTimer::timeout, this, &AudioPlayer::tick);
 }
@@ -79,7 +95,17 @@ bool AudioPlayer::play(PlayMode mode) {
         emit message(tr("The audio device cannot play %1 Hz mono.").arg(format.sampleRate()));
         return false;
     }
-    source_ = std::make_unique<SegmentSource>(transport_, take_);
+    const PlaySegment seg = *transport_.segment();
+    PlaybackParams params;
+    params.stretch.rate = transport_.segmentRate();
+    params.crossfadeSeconds = transport_.loopCrossfade();
+    try {
+        source_ = std::make_unique<SegmentSource>(take_, PlaybackSpan{seg.start, seg.end, seg.loop}, params);
+    } catch (const Error& e) {
+        transport_.stop();
+        emit message(tr("Cannot play this span: %1").arg(QString::fromStdString(e.what())));
+        return false;
+    }
     source_->open(QIODevice::ReadOnly);
     sink_ = std::make_unique<QAudioSink>(device, format);
     sink_->start(source_.get());
@@ -101,7 +127,9 @@ void AudioPlayer::stop() {
 
 void AudioPlayer::tick() {
     if (!sink_ || !view_) return;
-    const auto head = transport_.advance(sink_->processedUSecs() / 1e6);
+    // What the device has played, mapped back to take time by the stream.
+    const auto played = static_cast<std::int64_t>(static_cast<double>(sink_->processedUSecs()) * 1e-6 * take_->signal.sampleRate);
+    const auto head = source_->stream().takeSecondsAt(played);
     if (!head) {
         stop();
         return;

@@ -6,6 +6,7 @@
 #include <QToolTip>
 
 #include <algorithm>
+#include <cmath>
 #include <vector>
 
 namespace earmark::widgets {
@@ -31,6 +32,20 @@ const Suspect* SuspectLane::suspectAt(double x) const {
         const double x0 = xOf(s.startSeconds);
         const double x1 = std::max(xOf(s.endSeconds), x0 + minPixels);
         if (x >= x0 - 1 && x <= x1 + 1 && (!best || s.endSeconds - s.startSeconds < best->endSeconds - best->startSeconds))
+            best = &s;
+    }
+    return best;
+}
+
+const Suspect* SuspectLane::suspectFor(const std::optional<TimeRange>& selection, double cursor) const {
+    constexpr double sameSeconds = 0.001;
+    const Suspect* best = nullptr;
+    for (const Suspect& s : suspects_) {
+        if (selection && std::fabs(selection->start - s.startSeconds) <= sameSeconds &&
+            std::fabs(selection->end - s.endSeconds) <= sameSeconds)
+            return &s;
+        if (cursor >= s.startSeconds && cursor <= s.endSeconds &&
+            (!best || s.endSeconds - s.startSeconds < best->endSeconds - best->startSeconds))
             best = &s;
     }
     return best;

@@ -78,15 +78,4 @@ std::optional<double> Transport::advance(double elapsed) {
     return s.start + elapsed * segmentRate_;
 }
 
-std::optional<std::int64_t> Transport::sourceFrame(std::int64_t outputFrame, double rate) const {
-    if (!segment_ || outputFrame < 0) return std::nullopt;
-    const auto first = static_cast<std::int64_t>(std::llround(segment_->start * rate));
-    const auto last = static_cast<std::int64_t>(std::llround(segment_->end * rate));  // exclusive
-    const std::int64_t length = last - first;
-    if (length <= 0) return std::nullopt;
-    if (segment_->loop) return first + outputFrame % length;
-    if (outputFrame >= length) return std::nullopt;
-    return first + outputFrame;
-}
-
 }  // namespace earmark::widgets

@@ -21,6 +21,10 @@
 #include "earmark/core/progress.hpp"
 #include "earmark/core/signal.hpp"
 
+#include <cstddef>
+#include <span>
+#include <vector>
+
 namespace earmark {
 
 struct TimeStretchParams {
@@ -31,5 +35,32 @@ struct TimeStretchParams {
 };
 
 Signal timeStretch(const Signal& input, const TimeStretchParams& params, Progress progress = {});
+
+// The same stretch rendered a block at a time, for playback that starts at
+// once and runs as long as it likes: reading the whole output in blocks of
+// any sizes gives exactly timeStretch's samples. `input` is borrowed and must
+// outlive the stretcher. Not thread-safe; one per playing stream.
+class TimeStretcher {
+public:
+    // Throws ParamError as timeStretch does.
+    TimeStretcher(std::span<const float> input, double sampleRate, const TimeStretchParams& params);
+    std::size_t outputLength() const { return static_cast<std::size_t>(outLength_); }
+    std::size_t produced() const { return static_cast<std::size_t>(done_); }
+    // Writes up to `frames` next output samples; fewer only at the end.
+    std::size_t read(float* out, std::size_t frames);
+
+private:
+    void nextFrame();  // one WSOLA frame: the next hop of output becomes final
+    float at(std::ptrdiff_t i) const;
+
+    std::span<const float> x_;
+    double rate_ = 1.0;
+    std::ptrdiff_t hop_ = 1, tolerance_ = 0, outLength_ = 0;
+    std::vector<float> window_;
+    std::vector<float> pending_;  // second half of the last frame, not yet final
+    std::vector<float> ready_;    // final samples not yet read
+    std::size_t readyAt_ = 0;
+    std::ptrdiff_t k_ = 0, previous_ = 0, done_ = 0;
+};
 
 }  // namespace earmark

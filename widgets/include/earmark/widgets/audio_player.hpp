@@ -1,5 +1,7 @@
 // Plays a take through Qt Multimedia (QAudioSink, pull mode) under the
-// control of a Transport, and moves the view's playhead. Without an output
+// control of a Transport: at the transport's rate through the engine's
+// PlaybackStream (WSOLA keeps the pitch; loops cross-fade), and moves the
+// view's playhead to the take time being heard. Without an output
 // device it reports itself unavailable and every play request fails with a
 // message; nothing else in the window depends on a device.
 #pragma once
@@ -35,8 +37,15 @@ public:
     void stop();
     bool playing() const { return transport_.playing(); }
 
+    // Speed (0.25–2, clamped) and loop toggle; they apply from the next play().
+    void setRate(double rate);
+    double rate() const { return transport_.rate(); }
+    void setLooping(bool on);
+    bool looping() const { return transport_.looping(); }
+
 signals:
     void playingChanged(bool playing);
+    void rateOrLoopChanged();
     void message(const QString& text);
 
 private:

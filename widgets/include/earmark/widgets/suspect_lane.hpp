@@ -8,6 +8,7 @@
 #include "earmark/store/suspect.hpp"
 #include "earmark/widgets/span_lane.hpp"
 
+#include <optional>
 #include <vector>
 
 namespace earmark::widgets {
@@ -23,6 +24,9 @@ public:
     const std::vector<Suspect>& suspects() const { return suspects_; }
     // The suspect under x (widget coordinates), or nullptr.
     const Suspect* suspectAt(double x) const;
+    // The suspect whose span is the selection (to a millisecond), else the
+    // shortest one holding the cursor, else nullptr.
+    const Suspect* suspectFor(const std::optional<TimeRange>& selection, double cursorSeconds) const;
 
 protected:
     void drawContent(QPainter& painter) override;

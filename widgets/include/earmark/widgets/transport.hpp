@@ -7,7 +7,6 @@
 
 #include "earmark/widgets/time_mapping.hpp"
 
-#include <cstdint>
 #include <optional>
 
 namespace earmark::widgets {
@@ -74,9 +73,8 @@ public:
     // end (returns empty and the transport is stopped); a loop wraps.
     std::optional<double> advance(double elapsedSeconds);
 
-    // The source sample for the n-th output frame at rate 1 (wrapping for
-    // loops, without a fade), or empty past the end of a one-shot segment.
-    std::optional<std::int64_t> sourceFrame(std::int64_t outputFrame, double sampleRate) const;
+    // The rate the running segment started with.
+    double segmentRate() const { return segmentRate_; }
 
 private:
     std::optional<PlaySegment> segment_;
