@@ -21,6 +21,7 @@ source "$(dirname "${BASH_SOURCE[0]}")/find_cli.sh"
 cli="$(cd "$(dirname "$cli")" && pwd)/$(basename "$cli")"   # stays valid after the cd below
 
 cd "$here"
+export EARMARK_RATER=demo   # who the tiers, marks and statuses below are recorded for, unless --rater says otherwise
 part=demo.earmark.part   # built beside the final file, so relative paths stay right
 rm -f "$part" "$part-wal" "$part-shm"
 trap 'rm -f "$part" "$part-wal" "$part-shm"' EXIT
@@ -37,7 +38,7 @@ mark() {  # mark TAKE START END CATEGORY SUBTYPE SEVERITY NOTE
     local subtype=()
     [[ -n "$5" ]] && subtype=(--subtype "$5")
     "$cli" mark add "$part" --take "$1" --start "$2" --end "$3" --category "$4" "${subtype[@]}" \
-        --severity "$6" --note "$7" --rater demo >/dev/null
+        --severity "$6" --note "$7" >/dev/null
 }
 
 mark ferry-003 0.25 3.83 intonation flat major \

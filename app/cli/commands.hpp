@@ -21,5 +21,6 @@ int runListen(const std::vector<std::string>& args);
 int runLongform(const std::vector<std::string>& args);
 int runArtefacts(const std::vector<std::string>& args);
 int runWords(const std::vector<std::string>& args);
+int runAgreement(const std::vector<std::string>& args);
 
 }  // namespace earmark::cli

@@ -39,6 +39,7 @@ const std::map<std::string, Subcommand>& subcommands() {
         {"model", {earmark::cli::runModel, "a model's predicted mel or attention matrix against the audio"}},
         {"listen", {earmark::cli::runListen, "listening tests (MOS, CMOS, MUSHRA, A/B): create, plan, import, analyse"}},
         {"longform", {earmark::cli::runLongform, "one long take over time: seams at chunk joins, drifts, stretches"}},
+        {"agreement", {earmark::cli::runAgreement, "how far raters agree on the takes several of them reviewed: kappa, alpha, span matches"}},
         {"artefacts", {earmark::cli::runArtefacts, "list the clicks, noise bursts, buzz and drop-outs in one take"}},
     };
     return table;

@@ -4,6 +4,7 @@
 #include "arguments.hpp"
 #include "commands.hpp"
 #include "exit_codes.hpp"
+#include "rater_option.hpp"
 
 #include "earmark/core/error.hpp"
 #include "earmark/marks/mark_measures.hpp"
@@ -80,9 +81,10 @@ int runAdd(const Arguments& args) {
     draft.startSeconds = requireNumber(args, "start");
     draft.endSeconds = requireNumber(args, "end");
     draft.note = args.valueOr("note", "");
-    draft.rater = args.valueOr("rater", "");
 
     Session session = Session::open(file);
+    actAsRater(session, args);
+    draft.rater = session.rater();
     const auto key = args.value("take");
     if (!key) throw UsageError("needs --take ID (a take id, line id or audio file name)");
     const Take take = session.take(requireTake(session, *key));
@@ -121,6 +123,7 @@ int runList(const Arguments& args) {
 
 int runDelete(const Arguments& args) {
     Session session = Session::open(onlyFile(args));
+    actAsRater(session, args);
     const auto id = args.number("id");
     if (!id || *id < 1 || std::floor(*id) != *id) throw UsageError("needs --id N (a mark id from mark list)");
     const MarkEdit edit = session.deleteMark(static_cast<MarkId>(*id));
@@ -141,13 +144,13 @@ const std::map<std::string, Action>& actions() {
            {"subtype", "T", "", "a subtype of the category, e.g. flat, rushed, click"},
            {"severity", "V", "minor", "one of " + severityNameList()},
            {"note", "TEXT", "", "free note (UTF-8)"},
-           {"rater", "NAME", "", "who made the mark"}},
+           raterOption()},
           runAdd}},
         {"list",
          {"FILE [--take ID]", "list marks by queue order and time",
           {{"take", "ID", "", "only the marks of this take"}},
           runList}},
-        {"delete", {"FILE --id N", "delete one mark", {{"id", "N", "", "the mark's id"}}, runDelete}},
+        {"delete", {"FILE --id N", "delete one mark", {{"id", "N", "", "the mark's id"}, raterOption()}, runDelete}},
     };
     return table;
 }

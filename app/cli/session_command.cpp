@@ -4,7 +4,9 @@
 #include "arguments.hpp"
 #include "commands.hpp"
 #include "exit_codes.hpp"
+#include "rater_option.hpp"
 
+#include "earmark/agreement/assignment.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
 #include "earmark/store/session.hpp"
@@ -12,10 +14,13 @@
 #include "earmark/store/tier_rows.hpp"
 #include "earmark/tiers/timings_file.hpp"
 
+#include <cmath>
 #include <cstdio>
 #include <filesystem>
 #include <functional>
 #include <map>
+#include <set>
+#include <sstream>
 
 namespace earmark::cli {
 namespace {
@@ -95,7 +100,13 @@ int runAdd(const Arguments& args) {
 int runList(const Arguments& args) {
     const std::string& file = sessionFile(args, 1, "exactly one session FILE");
     const Session session = Session::open(file, OpenMode::ReadOnly);
-    const auto takes = session.takes();
+    auto takes = session.takes();
+    if (const auto rater = args.value("rater")) {
+        std::set<TakeId> mine;
+        for (const Assignment& a : session.assignments())
+            if (a.rater == *rater) mine.insert(a.takeId);
+        std::erase_if(takes, [&](const Take& t) { return !mine.count(t.id); });
+    }
     std::printf("%5s  %-16s %-11s %5s  %-8s %s\n", "id", "line", "status", "marks", "audio", "file");
     int missing = 0;
     for (const Take& t : takes) {
@@ -115,6 +126,7 @@ int runStatus(const Arguments& args) {
     const auto status = parseReviewStatus(name);
     if (!status) throw UsageError("unknown status '" + name + "' (known: " + reviewStatusNameList() + ")");
     Session session = Session::open(args.positionals().front());
+    actAsRater(session, args);
     const TakeId id = requireTake(session, args);
     const ReviewStatus previous = session.setStatus(id, *status);
     std::printf("take %lld: %s -> %s\n", static_cast<long long>(id), std::string(reviewStatusName(previous)).c_str(),
@@ -125,6 +137,7 @@ int runStatus(const Arguments& args) {
 int runTiers(const Arguments& args) {
     if (args.positionals().size() != 2) throw UsageError("expects a session FILE and a TIMINGS file (see --help)");
     Session session = Session::open(args.positionals().front());
+    actAsRater(session, args);
     const TakeId id = requireTake(session, args);
     const std::string& timings = args.positionals()[1];
     const auto rows = loadTierRows(timings, session.take(id).durationSeconds);
@@ -140,6 +153,60 @@ int runTiers(const Arguments& args) {
     });
     std::printf("take %lld: stored %zu interval(s)%s\n", static_cast<long long>(id), rows.size(),
                 replaced ? (" in place of " + std::to_string(replaced)).c_str() : "");
+    return kExitOk;
+}
+
+std::vector<std::string> splitNames(const std::string& list) {
+    std::vector<std::string> out;
+    std::stringstream in(list);
+    for (std::string name; std::getline(in, name, ',');) {
+        const auto first = name.find_first_not_of(' ');
+        out.push_back(first == std::string::npos ? "" : name.substr(first, name.find_last_not_of(' ') - first + 1));
+    }
+    return out;
+}
+
+int runAssign(const Arguments& args) {
+    const std::string& file = sessionFile(args, 1, "exactly one session FILE");
+    const auto raters = args.value("raters");
+    if (!raters) throw UsageError("needs --raters NAME,NAME,... (who reviews the takes)");
+    agreement::AssignmentParams params;
+    params.raters = splitNames(*raters);
+    params.overlapFraction = args.number("overlap").value_or(0.0);
+    const double perTake = args.number("per-take").value_or(0.0);
+    const double seed = args.number("seed").value_or(1.0);
+    if (perTake < 0 || std::floor(perTake) != perTake) throw UsageError("--per-take expects a whole number of raters");
+    if (seed < 0 || std::floor(seed) != seed || seed > 9.0e15) throw UsageError("--seed expects a whole number >= 0");
+    params.ratersPerSharedTake = static_cast<int>(perTake);
+    params.seed = static_cast<std::uint64_t>(seed);
+    Session session = Session::open(file);
+    std::vector<TakeId> queue;
+    for (const Take& t : session.takes()) queue.push_back(t.id);
+    const std::vector<Assignment> drawn = agreement::assignTakes(queue, params);  // ParamError: exit 2
+    session.setAssignments(drawn);
+    std::map<std::string, int> load;
+    std::map<TakeId, int> ratersOf;
+    for (const Assignment& a : drawn) ++load[a.rater], ++ratersOf[a.takeId];
+    int shared = 0;
+    for (const auto& [take, n] : ratersOf) shared += n > 1;
+    std::printf("assigned %zu take(s) of %s, %d of them to several raters (seed %llu)\n", queue.size(), file.c_str(),
+                shared, static_cast<unsigned long long>(params.seed));
+    for (const auto& [rater, n] : load) std::printf("  %-20s %d take(s)\n", rater.c_str(), n);
+    return kExitOk;
+}
+
+int runHistory(const Arguments& args) {
+    const std::string& file = sessionFile(args, 1, "exactly one session FILE");
+    const Session session = Session::open(file, OpenMode::ReadOnly);
+    std::optional<TakeId> take;
+    if (args.has("take")) take = requireTake(session, args);
+    const auto history = session.history(take);
+    std::printf("%-24s  %-16s %5s %5s  %-12s %s\n", "when (UTC)", "rater", "take", "mark", "action", "detail");
+    for (const HistoryEntry& h : history)
+        std::printf("%-24s  %-16s %5lld %5s  %-12s %s\n", h.atUtc.c_str(), h.rater.empty() ? "-" : h.rater.c_str(),
+                    static_cast<long long>(h.takeId), h.markId ? std::to_string(*h.markId).c_str() : "-",
+                    std::string(historyActionName(h.action)).c_str(), h.detail.c_str());
+    std::fprintf(stderr, "%zu change(s)\n", history.size());
     return kExitOk;
 }
 
@@ -189,16 +256,33 @@ const std::map<std::string, Action>& actions() {
            {"text", "TEXT", "", "script text of the one AUDIO file"},
            {"timings", "FILE", "", "word/phone timings of the one AUDIO file (Earmark JSON, CSV, WebVTT)"}},
           runAdd}},
-        {"list", {"FILE", "list the takes in queue order: id, line, status, marks, audio found, file", {}, runList}},
+        {"list",
+         {"FILE [--rater NAME]", "list the takes in queue order: id, line, status, marks, audio found, file",
+          {{"rater", "NAME", "", "only the takes assigned to this rater (see session assign)"}},
+          runList}},
         {"status",
          {"FILE --take ID STATUS", "set a take's review status",
-          {{"take", "ID", "", "take id, line id or audio file name"}},
+          {{"take", "ID", "", "take id, line id or audio file name"}, raterOption()},
           runStatus}},
         {"tiers",
          {"FILE --take ID TIMINGS [--replace]", "store a timings file as the take's tiers",
           {{"take", "ID", "", "take id, line id or audio file name"},
-           {"replace", "", "", "replace the tiers the take already has (refused without it)"}},
+           {"replace", "", "", "replace the tiers the take already has (refused without it)"},
+           raterOption()},
           runTiers}},
+        {"assign",
+         {"FILE --raters A,B,... [--overlap F] [--per-take K] [--seed N]",
+          "divide the queue among raters (replaces earlier assignments); a share F of the takes goes to "
+          "several raters, for agreement ([agreement](docs/agreement.md))",
+          {{"raters", "A,B,...", "", "the raters, comma-separated"},
+           {"overlap", "F", "0", "share of the takes (0 to 1) that several raters review"},
+           {"per-take", "K", "0 = all", "raters on each shared take (2 to the number of raters)"},
+           {"seed", "N", "1", "seed of the draw: the same seed gives the same assignment"}},
+          runAssign}},
+        {"history",
+         {"FILE [--take ID]", "who changed what and when: marks, statuses, tiers (oldest first)",
+          {{"take", "ID", "", "only the changes of this take"}},
+          runHistory}},
         {"salvage",
          {"DAMAGED NEW", "copy every take, tier, suspect and mark still readable from a damaged session into "
                          "a new session file",

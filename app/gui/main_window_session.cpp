@@ -30,6 +30,7 @@
 #include <QFileDialog>
 #include <QFileInfo>
 #include <QListWidget>
+#include <QSettings>
 #include <QStackedWidget>
 #include <QUndoStack>
 
@@ -77,6 +78,7 @@ bool MainWindow::openSession(const QString& path) {
     }
     if (session_) session_->deleteLater();
     session_ = doc;
+    session_->actForRater(QSettings().value("review/rater").toString());  // who the changes are recorded for
     undo_->clear();
     connect(session_, &SessionDocument::problem, this, [this](const QString& m) { notify(m, 8000); });
     connect(session_, &SessionDocument::marksChanged, this, [this](qint64 take) {
@@ -232,7 +234,6 @@ void MainWindow::createMark(const MarkChoice& choice) {
     d.severity = choice.severity;
     d.startSeconds = span->start;
     d.endSeconds = std::min(span->end, audio_ ? audio_->duration() : span->end);
-    d.rater = qEnvironmentVariable("USER").left(static_cast<int>(MarkDraft::kMaxRaterBytes)).toStdString();
     d.measures = measuresFor(d.startSeconds, d.endSeconds);
     const auto edit = session_->addMark(*currentTake_, d);
     if (!edit) return;

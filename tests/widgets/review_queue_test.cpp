@@ -111,6 +111,9 @@ TEST(MarkList, ListsEveryMarkFiltersAndReportsClicks) {
     ASSERT_EQ(list.shownCount(), 1);
     const MarkId id = list.markAtRow(0);
     EXPECT_EQ(doc.mark(id)->takeId, t5);
+    EXPECT_EQ(list.table()->horizontalHeaderItem(7)->text(), "rater");
+    EXPECT_EQ(list.table()->item(0, 7)->text(), QString::fromStdString(doc.mark(id)->rater));
+    EXPECT_EQ(list.table()->item(0, 7)->text(), "demo");  // samples/make_session.sh
     QSignalSpy chosen(&list, &MarkList::markChosen);
     emit list.table()->cellClicked(0, 0);
     ASSERT_EQ(chosen.count(), 1);

@@ -100,6 +100,7 @@ TEST_F(SessionWindow, AMarkMadeWithTwoKeysIsStoredAndUndoable) {
     const MarkId id = made->id;
     EXPECT_EQ(made->category, MarkCategory::Intonation);
     EXPECT_EQ(made->severity, Severity::Minor);
+    EXPECT_FALSE(made->rater.empty());  // $EARMARK_RATER, the setting or the user name
     EXPECT_DOUBLE_EQ(made->endSeconds, 0.9);
     ASSERT_TRUE(made->measures.count("duration_s"));
     EXPECT_NEAR(made->measures.at("duration_s"), 0.4, 1e-6);

@@ -74,11 +74,12 @@ void MarkInspector::setMark(std::optional<Mark> mark) {
         note_->clear();
     } else {
         const Mark& m = *mark_;
-        header_->setText(tr("<b>%1 mark</b>, %2–%3 s%4")
+        header_->setText(tr("<b>%1 mark</b>, %2–%3 s%4%5")
                              .arg(categoryLabel(m.category))
                              .arg(m.startSeconds, 0, 'f', 3)
                              .arg(m.endSeconds, 0, 'f', 3)
-                             .arg(m.words.empty() ? QString() : tr("<br>words: %1").arg(QString::fromStdString(m.words).toHtmlEscaped())));
+                             .arg(m.words.empty() ? QString() : tr("<br>words: %1").arg(QString::fromStdString(m.words).toHtmlEscaped()))
+                             .arg(m.rater.empty() ? QString() : tr("<br>by %1").arg(QString::fromStdString(m.rater).toHtmlEscaped())));
         category_->setCurrentIndex(category_->findData(static_cast<int>(m.category)));
         fillSubtypes(m.category, m.subtype);
         severity_->setCurrentIndex(severity_->findData(static_cast<int>(m.severity)));

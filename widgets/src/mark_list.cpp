@@ -14,7 +14,7 @@ namespace earmark::widgets {
 
 namespace {
 constexpr int markIdRole = Qt::UserRole + 1;
-enum Column { TakeCol, StartCol, EndCol, CategoryCol, SubtypeCol, SeverityCol, WordsCol, NoteCol, ColumnCount };
+enum Column { TakeCol, StartCol, EndCol, CategoryCol, SubtypeCol, SeverityCol, WordsCol, RaterCol, NoteCol, ColumnCount };
 
 // A cell that sorts by a rank instead of its text (severity: minor < major < blocker).
 class RankedCell : public QTableWidgetItem {
@@ -62,7 +62,8 @@ MarkList::MarkList(QWidget* parent) : QWidget(parent) {
     table_ = new QTableWidget(this);
     table_->setColumnCount(ColumnCount);
     table_->setHorizontalHeaderLabels(
-        {tr("take"), tr("start s"), tr("end s"), tr("category"), tr("subtype"), tr("severity"), tr("words"), tr("note")});
+        {tr("take"), tr("start s"), tr("end s"), tr("category"), tr("subtype"), tr("severity"), tr("words"), tr("rater"),
+         tr("note")});
     table_->verticalHeader()->hide();
     table_->setSelectionBehavior(QAbstractItemView::SelectRows);
     table_->setSelectionMode(QAbstractItemView::SingleSelection);
@@ -138,6 +139,7 @@ void MarkList::rebuild() {
         table_->setItem(row, SubtypeCol, cell(QString::fromStdString(m.subtype)));
         table_->setItem(row, SeverityCol, new RankedCell(severityLabel(m.severity), static_cast<int>(m.severity)));
         table_->setItem(row, WordsCol, cell(QString::fromStdString(m.words)));
+        table_->setItem(row, RaterCol, cell(QString::fromStdString(m.rater)));
         table_->setItem(row, NoteCol, cell(QString::fromStdString(m.note)));
     }
     table_->setSortingEnabled(true);

@@ -1,5 +1,6 @@
 #include "earmark/widgets/session_document.hpp"
 
+#include "earmark/marks/rater_name.hpp"
 #include "earmark/store/tier_rows.hpp"
 
 #include <exception>
@@ -25,6 +26,12 @@ bool SessionDocument::attempt(F&& f) {
         return false;
     }
 }
+
+bool SessionDocument::actForRater(const QString& settingsName) {
+    return attempt([&] { session_->setRater(resolveRaterName({.settingsName = settingsName.toStdString()})); });
+}
+
+QString SessionDocument::rater() const { return QString::fromStdString(session_->rater()); }
 
 void SessionDocument::reloadTakes() {
     takes_ = session_->takes();

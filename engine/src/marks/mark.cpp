@@ -13,25 +13,6 @@ namespace {
 
 std::string seconds(double s) { return formatSeconds(s); }
 
-// Text typed by a person: valid UTF-8, bounded, and no control characters
-// other than tab and line breaks (they would corrupt one-line displays).
-void checkText(const char* field, const std::string& text, std::size_t maxBytes, bool multiLine) {
-    const std::string subject = std::string("Mark.") + field;
-    if (auto bad = firstInvalidUtf8(text))
-        throw ParamError(subject, "is not valid UTF-8 (bad byte at offset " + std::to_string(*bad) +
-                                      "); save the text as UTF-8");
-    if (text.size() > maxBytes)
-        throw ParamError(subject, "is " + std::to_string(text.size()) + " bytes long; at most " +
-                                      std::to_string(maxBytes) + " are allowed");
-    for (std::size_t i = 0; i < text.size(); ++i) {
-        const auto c = static_cast<unsigned char>(text[i]);
-        const bool allowed = c >= 0x20 || c == '\t' || (multiLine && (c == '\n' || c == '\r'));
-        if (!allowed || c == 0x7F)
-            throw ParamError(subject, "contains a control character (byte " + std::to_string(c) +
-                                          " at offset " + std::to_string(i) + ")");
-    }
-}
-
 }  // namespace
 
 void MarkDraft::validate(double takeDurationSeconds) const {
@@ -62,10 +43,10 @@ void MarkDraft::validate(double takeDurationSeconds) const {
         throw ParamError("Mark.endSeconds", "the span " + seconds(startSeconds) + " to " +
                                                 seconds(endSeconds) + " runs past the end of the take (" +
                                                 seconds(takeDurationSeconds) + ")");
-    checkText("subtype", subtype, 64, false);
-    checkText("words", words, kMaxWordsBytes, false);
-    checkText("note", note, kMaxNoteBytes, true);
-    checkText("rater", rater, kMaxRaterBytes, false);
+    checkTypedText("Mark.subtype", subtype, 64, false);
+    checkTypedText("Mark.words", words, kMaxWordsBytes, false);
+    checkTypedText("Mark.note", note, kMaxNoteBytes, true);
+    checkTypedText("Mark.rater", rater, kMaxRaterBytes, false);
     for (const auto& [name, value] : measures) {
         if (name.empty() || name.size() > 64)
             throw ParamError("Mark.measures", "a measure name must have 1 to 64 characters");

@@ -1,5 +1,7 @@
 #include "earmark/marks/utf8.hpp"
 
+#include "earmark/core/error.hpp"
+
 namespace earmark {
 
 // The well-formed byte sequences of RFC 3629, section 4 (Syntax of UTF-8 Byte
@@ -52,6 +54,22 @@ std::string validUtf8(std::string_view text) {
     }
     out.append(text);
     return out;
+}
+
+void checkTypedText(const std::string& subject, std::string_view text, std::size_t maxBytes, bool multiLine) {
+    if (auto bad = firstInvalidUtf8(text))
+        throw ParamError(subject, "is not valid UTF-8 (bad byte at offset " + std::to_string(*bad) +
+                                      "); save the text as UTF-8");
+    if (text.size() > maxBytes)
+        throw ParamError(subject, "is " + std::to_string(text.size()) + " bytes long; at most " +
+                                      std::to_string(maxBytes) + " are allowed");
+    for (std::size_t i = 0; i < text.size(); ++i) {
+        const auto c = static_cast<unsigned char>(text[i]);
+        const bool allowed = c >= 0x20 || c == '\t' || (multiLine && (c == '\n' || c == '\r'));
+        if (!allowed || c == 0x7F)
+            throw ParamError(subject, "contains a control character (byte " + std::to_string(c) +
+                                          " at offset " + std::to_string(i) + ")");
+    }
 }
 
 }  // namespace earmark

@@ -120,6 +120,27 @@ CREATE TABLE listening_answers (
     UNIQUE (test_id, rater, line_id, system, versus, kind)
 );
 )sql"},
+    // Version 4: raters. Who changed what and when (the review history), who
+    // last set each take's status, and which takes each rater is to review.
+    {4, R"sql(
+CREATE TABLE review_history (
+    id      INTEGER PRIMARY KEY AUTOINCREMENT,
+    at_utc  TEXT NOT NULL,
+    rater   TEXT NOT NULL DEFAULT '',
+    take_id INTEGER NOT NULL REFERENCES takes (id) ON DELETE CASCADE,
+    mark_id INTEGER,
+    action  TEXT NOT NULL CHECK (action IN ('mark-added', 'mark-changed', 'mark-deleted', 'status', 'tiers')),
+    detail  TEXT NOT NULL DEFAULT ''
+);
+CREATE INDEX review_history_by_take ON review_history (take_id, id);
+ALTER TABLE takes ADD COLUMN status_rater TEXT NOT NULL DEFAULT '';
+CREATE TABLE assignments (
+    take_id      INTEGER NOT NULL REFERENCES takes (id) ON DELETE CASCADE,
+    rater        TEXT NOT NULL CHECK (rater <> ''),
+    assigned_utc TEXT NOT NULL,
+    PRIMARY KEY (take_id, rater)
+) WITHOUT ROWID;
+)sql"},
 };
 
 static_assert(std::size(kMigrations) == Session::kSchemaVersion, "one migration step per schema version");

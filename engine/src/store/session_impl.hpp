@@ -13,6 +13,10 @@ struct Session::Impl {
     store::Db db;
     std::filesystem::path folder;  // absolute folder of the session file (audio paths are relative to it)
     bool readOnly = false;
+    std::string rater;  // Session::setRater
+
+    // Appends a row to the review history (inside the caller's transaction).
+    void record(TakeId take, std::optional<MarkId> mark, HistoryAction action, const std::string& detail);
 
     // Throws Error when the session was opened read-only.
     void requireWritable(const std::string& doing) const;

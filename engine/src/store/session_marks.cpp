@@ -7,6 +7,7 @@
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
+#include <cstdio>
 
 namespace earmark {
 namespace {
@@ -95,8 +96,18 @@ MarkDraft prepareDraft(const Session::Impl& impl, const Take& take, MarkDraft dr
         return r.tier == "words" || r.tier == "word";
     });
     if (hasWordTier) draft.words = wordsCovered(tiers, draft.startSeconds, draft.endSeconds);
+    if (draft.rater.empty()) draft.rater = impl.rater;
     draft.validate(take.durationSeconds);
     return draft;
+}
+
+// "timing/rushed 1.200-1.500 s": what the history says about a mark.
+std::string historyDetail(const Mark& m) {
+    std::string kind(categoryName(m.category));
+    if (!m.subtype.empty()) kind += "/" + m.subtype;
+    char span[64];
+    std::snprintf(span, sizeof span, " %.3f-%.3f s", m.startSeconds, m.endSeconds);
+    return kind + span;
 }
 
 }  // namespace
@@ -124,6 +135,7 @@ MarkEdit Session::addMark(TakeId takeId, const MarkDraft& draft) {
     m.createdUtc = m.updatedUtc = store::utcNowIso8601();
     insertMark(impl_->db, m);
     m.id = sqlite3_last_insert_rowid(impl_->db.get());
+    impl_->record(takeId, m.id, HistoryAction::MarkAdded, historyDetail(m));
     MarkEdit edit{std::nullopt, m, takeId, take.status, ReviewStatus::HasMarks};
     if (edit.statusBefore != edit.statusAfter) impl_->writeStatus(takeId, edit.statusAfter);
     tx.commit();
@@ -139,6 +151,7 @@ MarkEdit Session::updateMark(MarkId id, const MarkDraft& draft) {
     static_cast<MarkDraft&>(after) = prepareDraft(*impl_, take, draft);
     after.updatedUtc = store::utcNowIso8601();
     writeMark(impl_->db, after);
+    impl_->record(take.id, id, HistoryAction::MarkChanged, historyDetail(after));
     tx.commit();
     return {before, after, take.id, take.status, take.status};
 }
@@ -149,6 +162,7 @@ MarkEdit Session::deleteMark(MarkId id) {
     const Mark before = impl_->readMark(id);
     const ReviewStatus status = impl_->readStatus(before.takeId);
     eraseMark(impl_->db, id);
+    impl_->record(before.takeId, id, HistoryAction::MarkDeleted, historyDetail(before));
     MarkEdit edit{before, std::nullopt, before.takeId, status, status};
     if (status == ReviewStatus::HasMarks && impl_->countMarks(before.takeId) == 0) {
         edit.statusAfter = ReviewStatus::InReview;
@@ -173,8 +187,11 @@ void Session::apply(const MarkEdit& edit) {
         edit.after->validate(take.durationSeconds);
         if (edit.before) writeMark(impl_->db, *edit.after);
         else insertMark(impl_->db, *edit.after);
+        impl_->record(edit.takeId, id, edit.before ? HistoryAction::MarkChanged : HistoryAction::MarkAdded,
+                      historyDetail(*edit.after));
     } else {
         eraseMark(impl_->db, id);
+        if (edit.before) impl_->record(edit.takeId, id, HistoryAction::MarkDeleted, historyDetail(*edit.before));
     }
     // Only restore the status this edit set; a status chosen since is kept.
     if (edit.statusBefore != edit.statusAfter && take.status == edit.statusBefore)

@@ -19,12 +19,13 @@ using store::Statement;
 using store::WriteTransaction;
 
 const std::string kTakeColumns = std::string("SELECT t.id, ") + kTakeRowColumns +
-                                 ", (SELECT count(*) FROM marks m WHERE m.take_id = t.id) FROM takes t ";
+                                 ", (SELECT count(*) FROM marks m WHERE m.take_id = t.id), t.status_rater FROM takes t ";
 
 Take takeFromRow(const Session::Impl& impl, const Statement& st) {
     Take t = takeFromColumns(st, 1, st.integer(0), impl.db.path);
     t.audioPath = impl.resolveAudioPath(t.storedAudioPath);
     t.markCount = static_cast<int>(st.integer(12));
+    t.statusRater = st.text(13);
     return t;
 }
 
@@ -75,8 +76,10 @@ Take Session::Impl::readTake(TakeId id) const {
 ReviewStatus Session::Impl::readStatus(TakeId id) const { return readTake(id).status; }
 
 void Session::Impl::writeStatus(TakeId id, ReviewStatus status) {
-    Statement st(db, "UPDATE takes SET status = ?1, status_utc = ?2 WHERE id = ?3", "changing a review status");
-    st.bind(1, reviewStatusName(status)).bind(2, store::utcNowIso8601()).bind(3, id).run();
+    Statement st(db, "UPDATE takes SET status = ?1, status_utc = ?2, status_rater = ?3 WHERE id = ?4",
+                 "changing a review status");
+    st.bind(1, reviewStatusName(status)).bind(2, store::utcNowIso8601()).bind(3, rater).bind(4, id).run();
+    record(id, std::nullopt, HistoryAction::Status, std::string(reviewStatusName(status)));
 }
 
 int Session::Impl::countMarks(TakeId id) const {
@@ -280,6 +283,7 @@ std::vector<TierRow> Session::setTiers(TakeId id, const std::vector<TierRow>& ro
         insert.bind(5, row.endSeconds).bind(6, row.label).run();
         insert.reset();
     }
+    impl_->record(id, std::nullopt, HistoryAction::Tiers, std::to_string(rows.size()) + " intervals");
     tx.commit();
     return previous;
 }

@@ -21,6 +21,7 @@ namespace {
 namespace fs = std::filesystem;
 using ::testing::HasSubstr;
 using test::draftAt;
+using test::rawSql;
 using test::slurp;
 using test::TempDir;
 using test::writeTake;
@@ -34,17 +35,6 @@ std::string openError(const std::string& path, OpenMode mode = OpenMode::ReadWri
         return e.what();
     }
     return "";
-}
-
-// Runs SQL on a file with plain SQLite, as another program would.
-void rawSql(const std::string& path, const char* sql) {
-    sqlite3* db = nullptr;
-    ASSERT_EQ(sqlite3_open(path.c_str(), &db), SQLITE_OK);
-    char* message = nullptr;
-    const int rc = sqlite3_exec(db, sql, nullptr, nullptr, &message);
-    EXPECT_EQ(rc, SQLITE_OK) << (message ? message : "");
-    sqlite3_free(message);
-    sqlite3_close(db);
 }
 
 TEST(SessionErrors, GarbageEmptyAndForeignFilesAreNotSessions) {

@@ -21,18 +21,7 @@ using test::draftAt;
 using test::TempDir;
 using test::writeTake;
 
-struct Fixture {
-    TempDir dir;
-    std::string file = dir.file("s.earmark");
-    Session session = Session::create(file);
-    TakeId a = 0, b = 0;
-    Fixture() {
-        fs::create_directories(dir.path() / "takes");
-        const auto ids = session.addTakes({{writeTake(dir.file("takes/a.wav"), 2.0), "line-a", "Text A.", "b1"},
-                                           {writeTake(dir.file("takes/b.wav"), 3.0), "line-b", "Text B?", "b1"}});
-        a = ids[0], b = ids[1];
-    }
-};
+using Fixture = test::TwoTakeSession;
 
 TEST(Session, CreateRefusesAnExistingFile) {
     TempDir dir;

@@ -5,11 +5,16 @@
 
 #include "earmark/io/audio_file.hpp"
 #include "earmark/marks/mark.hpp"
+#include "earmark/store/session.hpp"
+#include "support/temp_dir.hpp"
 #include "support/test_signals.hpp"
 
+#include <gtest/gtest.h>
+#include <sqlite3.h>
 #include <sys/wait.h>
 #include <unistd.h>
 
+#include <filesystem>
 #include <functional>
 #include <string>
 
@@ -34,6 +39,31 @@ inline MarkDraft draftAt(double start, double end, MarkCategory category = MarkC
     d.measures = {{"duration_s", end - start}};
     return d;
 }
+
+// Runs SQL on a file with plain SQLite, as another program would.
+inline void rawSql(const std::string& path, const char* sql) {
+    sqlite3* db = nullptr;
+    ASSERT_EQ(sqlite3_open(path.c_str(), &db), SQLITE_OK);
+    char* message = nullptr;
+    const int rc = sqlite3_exec(db, sql, nullptr, nullptr, &message);
+    EXPECT_EQ(rc, SQLITE_OK) << (message ? message : "");
+    sqlite3_free(message);
+    sqlite3_close(db);
+}
+
+// A new session with two takes (2 s and 3 s) in a takes/ folder beside it.
+struct TwoTakeSession {
+    TempDir dir;
+    std::string file = dir.file("s.earmark");
+    Session session = Session::create(file);
+    TakeId a = 0, b = 0;
+    TwoTakeSession() {
+        std::filesystem::create_directories(dir.path() / "takes");
+        const auto ids = session.addTakes({{writeTake(dir.file("takes/a.wav"), 2.0), "line-a", "Text A.", "b1"},
+                                           {writeTake(dir.file("takes/b.wav"), 3.0), "line-b", "Text B?", "b1"}});
+        a = ids[0], b = ids[1];
+    }
+};
 
 struct ChildResult {
     int exitCode = -1;

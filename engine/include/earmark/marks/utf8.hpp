@@ -21,4 +21,10 @@ inline bool isValidUtf8(std::string_view text) { return !firstInvalidUtf8(text).
 // name (a file name in another encoding) where only UTF-8 may go.
 std::string validUtf8(std::string_view text);
 
+// Text typed by a person (a note, a rater's name): valid UTF-8, at most
+// `maxBytes`, and no control characters other than tab (and line breaks when
+// `multiLine`): they would corrupt one-line displays. Throws ParamError whose
+// subject is `subject` ("Mark.note").
+void checkTypedText(const std::string& subject, std::string_view text, std::size_t maxBytes, bool multiLine);
+
 }  // namespace earmark

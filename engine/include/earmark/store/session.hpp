@@ -10,6 +10,9 @@
 // reader sees the state after some committed transaction, never half of one;
 // writers wait for each other up to kBusyTimeoutMs.
 //
+// Raters: each change made through a Session is written to the review
+// history with the rater the Session acts for (setRater) and the time.
+//
 // Schema versions: PRAGMA user_version holds the version; opening a file with
 // an older version upgrades it in one transaction (all steps or none); a file
 // from a newer Earmark is refused and left untouched.
@@ -27,12 +30,15 @@
 
 #include "earmark/marks/mark.hpp"
 #include "earmark/store/mark_edit.hpp"
+#include "earmark/store/review_history.hpp"
 #include "earmark/store/suspect.hpp"
 #include "earmark/store/take.hpp"
 
 #include <functional>
+#include <map>
 #include <memory>
 #include <optional>
+#include <set>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -46,7 +52,7 @@ enum class OpenMode {
 
 class Session {
 public:
-    static constexpr int kSchemaVersion = 3;
+    static constexpr int kSchemaVersion = 4;
     static constexpr int kBusyTimeoutMs = 5000;
 
     // Creates a new, empty session file. Refuses (InputError) when `path`
@@ -142,6 +148,27 @@ public:
     Mark mark(MarkId id) const;
     // All marks (of one take, when given), by take queue order then start time.
     std::vector<Mark> marks(std::optional<TakeId> take = std::nullopt) const;
+
+    // --- raters, history, assignments ----------------------------------
+    // The rater this Session acts for (earmark/marks/rater_name.hpp): written
+    // into the history with every mark change, review status and tier edit
+    // made through it, as the status's rater, and as the rater of a new mark
+    // whose draft names none. "" (the default) records no name. ParamError
+    // for a name that is not valid text (checkRaterName).
+    void setRater(const std::string& name);
+    const std::string& rater() const;
+    // The history of the session (of one take, when given), oldest first.
+    std::vector<HistoryEntry> history(std::optional<TakeId> take = std::nullopt) const;
+    // Raters who reviewed each take: who made, changed or deleted a mark on
+    // it, who set its status to clean or has-marks, and the raters of its
+    // marks. Takes nobody named reviewed are absent. (Being assigned a take
+    // is not reviewing it.)
+    std::map<TakeId, std::set<std::string>> reviewers() const;
+    // Replaces every assignment with `assignments` in one transaction.
+    // InputError for a take that does not exist; ParamError for a blank or
+    // invalid rater name or an assignment listed twice.
+    void setAssignments(const std::vector<Assignment>& assignments);
+    std::vector<Assignment> assignments() const;  // by take queue order, then rater
 
     // --- suspects ------------------------------------------------------
     // Replaces the suspects of a take (the scan writes a take's set at once).

@@ -47,6 +47,7 @@ struct Take {
     std::string build;
     ReviewStatus status = ReviewStatus::Unreviewed;
     std::string statusUtc;          // when the status last changed ("" = never)
+    std::string statusRater;        // who last set it ("" = unknown)
     double durationSeconds = 0.0;   // probed when the take was added or relocated
     double sampleRate = 0.0;        // Hz, of the file
     int channels = 0;

@@ -30,6 +30,11 @@ public:
     ~SessionDocument() override;
 
     QString path() const;
+    // Makes the session record this window's changes for a rater: the name
+    // from $EARMARK_RATER, else `settingsName`, else the user name
+    // (earmark/marks/rater_name.hpp). False (problem() emitted) for a bad name.
+    bool actForRater(const QString& settingsName);
+    QString rater() const;
     const std::vector<Take>& takes() const { return takes_; }  // queue order
     const Take* take(TakeId id) const;
     int indexOf(TakeId id) const;  // queue position, −1 when unknown
