@@ -50,9 +50,11 @@ Signal trimmed(const Signal& s) {
 // else rendered now and stored: written under a unique name, then renamed.
 Signal renderedOnDisk(int i, const SpeechParams& p) {
     const std::string text = longReadSentence(i);
-    const std::string name = "s" + std::to_string(i) + "-" + p.voice + "-" + std::to_string(p.rateWpm) + "-" +
-                             std::to_string(p.pitchRange) + "-" +
-                             std::to_string(std::hash<std::string>{}(text) % 1000000007u) + ".wav";
+    // Built by append: GCC 12 raises a false -Wrestrict on "literal" + std::string&&.
+    std::string name("s");
+    name.append(std::to_string(i)).append("-").append(p.voice).append("-").append(std::to_string(p.rateWpm));
+    name.append("-").append(std::to_string(p.pitchRange)).append("-");
+    name.append(std::to_string(std::hash<std::string>{}(text) % 1000000007u)).append(".wav");
     const std::filesystem::path dir = std::filesystem::temp_directory_path() / "earmark-long-read-cache";
     const std::filesystem::path file = dir / name;
     std::error_code ec;

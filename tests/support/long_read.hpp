@@ -34,7 +34,7 @@ struct LongReadPlan {
     // extra level in dB at time t.
     std::function<double(double t)> gainDb = [](double) { return 0.0; };
     std::function<double(double t)> floorStepDb = [](double) { return 0.0; };
-    std::vector<double> clicksS;        // an impulse (3 samples, peak 0.3) at each time
+    std::vector<double> clicksS{};      // an impulse (3 samples, peak 0.3) at each time
 };
 
 struct LongRead {

@@ -25,6 +25,11 @@ std::string sizeText(std::size_t bytes) {
     return std::to_string(bytes) + " bytes";
 }
 
+// Built by append: GCC 12 raises a false -Wrestrict on "literal" + std::string&&.
+std::string tooLarge(std::size_t maxBytes) {
+    return std::string("is larger than ").append(sizeText(maxBytes)).append(", the limit for a text input");
+}
+
 }  // namespace
 
 std::string readTextFile(const std::string& path, std::size_t maxBytes) {
@@ -37,7 +42,7 @@ std::string readTextFile(const std::string& path, std::size_t maxBytes) {
     if (::fstat(file.fd, &st) != 0) throw InputError(path, std::string("cannot be read: ") + std::strerror(errno));
     if (S_ISDIR(st.st_mode)) throw InputError(path, "is a folder, not a file");
     if (S_ISREG(st.st_mode) && static_cast<unsigned long long>(st.st_size) > maxBytes)
-        throw InputError(path, "is larger than " + sizeText(maxBytes) + ", the limit for a text input");
+        throw InputError(path, tooLarge(maxBytes));
     std::string text;
     if (S_ISREG(st.st_mode)) text.reserve(static_cast<std::size_t>(st.st_size));
     char block[1 << 16];
@@ -49,7 +54,7 @@ std::string readTextFile(const std::string& path, std::size_t maxBytes) {
         }
         if (got == 0) break;
         if (static_cast<std::size_t>(got) > maxBytes - text.size())
-            throw InputError(path, "is larger than " + sizeText(maxBytes) + ", the limit for a text input");
+            throw InputError(path, tooLarge(maxBytes));
         text.append(block, static_cast<std::size_t>(got));
     }
     return text;

@@ -48,7 +48,7 @@ std::vector<WordScoreSpan> wordScoreSpans(const WordEvidenceResult& evidence, co
 // One row of a word's expected-vs-heard table.
 struct PhoneRow {
     std::string expected;  // model phone
-    std::string heard;     // best free phone sequence over its frames, space-separated ("" = no frames)
+    std::string heard{};   // best free phone sequence over its frames, space-separated ("" = no frames)
     double score = 0;      // GOP, nats per frame
     double startS = 0, endS = 0;
     bool matches = false;  // heard is exactly the expected phone
