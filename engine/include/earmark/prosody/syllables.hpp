@@ -36,9 +36,8 @@ bool isVowelPhone(std::string_view label);
 // Vowel phones whose midpoint lies in [startS, endS).
 int countVowelPhones(const std::vector<Interval>& phones, double startS, double endS);
 
-// Syllable nuclei from energy peaks, after the idea of de Jong & Wempe,
-// "Praat script to detect syllable nuclei and measure speech rate
-// automatically", Behavior Research Methods 41(2), 2009: a nucleus is a peak
+// Syllable nuclei from energy peaks, after the idea of de Jong & Wempe (2009),
+// Behavior Research Methods 41(2), 385–390: a nucleus is a peak
 // of the (smoothed) energy contour that rises at least `minDipDb` above the
 // dips on both sides, lies within `maxBelowSpeechDb` of the take's speech
 // level and, when a pitch track is given, falls on a voiced frame.
