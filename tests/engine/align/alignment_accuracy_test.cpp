@@ -9,6 +9,7 @@
 // error < 20 ms. The sentences are invented here.
 #include "earmark/align/speech_render.hpp"
 #include "earmark/align/text_aligner.hpp"
+#include "support/espeak_truth.hpp"
 #include "support/test_signals.hpp"
 
 #include <gtest/gtest.h>
@@ -22,6 +23,10 @@
 
 namespace earmark {
 namespace {
+
+using test::percentile;
+using test::TruthWord;
+using test::truthWords;
 
 const char* const kSentences[] = {
     "The lighthouse keeper counted seven gulls before breakfast.",
@@ -79,55 +84,6 @@ const Variant kVariants[] = {
     {"en+f2", 190, 65, 0, 0.5, 1.0},         {"en-us+m5", 215, 45, 30, 0.0, 0.3},
     {"en-us+klatt", 180, 55, 25, 0.6, 0.6},  {"en+f4", 235, 80, 0, 0.3, 0.0},
 };
-
-struct Boundary {
-    double truthS;
-    double alignedS;
-};
-
-// Truth words from the test rendering's raw events: a token's first word
-// event starts it; it ends at the first event after its last sounding
-// phoneme. The renderer sometimes reads a short word with the one before
-// ("on the") under one event: such a truth word spans tokens first…last,
-// and only its outer boundaries are known.
-struct TruthWord {
-    int firstToken = 0, lastToken = 0;
-    double startS = 0.0, endS = 0.0;
-};
-
-std::vector<TruthWord> truthWords(const std::string& text, const RenderedSpeech& speech) {
-    const auto tokenOf = [&](std::size_t byte) {
-        int token = -1;
-        for (std::size_t b = 0; b <= byte && b < text.size(); ++b)
-            if (text[b] != ' ' && (b == 0 || text[b - 1] == ' ')) ++token;
-        return token;
-    };
-    std::vector<TruthWord> words;
-    bool lastWasSounding = false;
-    for (const SpeechEvent& ev : speech.events) {
-        if (lastWasSounding && !words.empty()) words.back().endS = ev.timeS;
-        lastWasSounding = false;
-        if (ev.kind == SpeechEvent::Kind::Word) {
-            const int token = tokenOf(ev.textBegin);
-            if (words.empty() || token > words.back().firstToken) words.push_back({token, token, ev.timeS, ev.timeS});
-        } else if (!ev.phoneme.empty()) {
-            lastWasSounding = true;
-        }
-    }
-    if (lastWasSounding && !words.empty()) words.back().endS = speech.audio.durationSeconds();
-    const int tokens = tokenOf(text.size() - 1) + 1;
-    for (std::size_t k = 0; k < words.size(); ++k)
-        words[k].lastToken = (k + 1 < words.size() ? words[k + 1].firstToken : tokens) - 1;
-    return words;
-}
-
-double percentile(std::vector<double> v, double q) {
-    std::sort(v.begin(), v.end());
-    const double pos = q * (v.size() - 1);
-    const auto lo = static_cast<std::size_t>(std::floor(pos));
-    const std::size_t hi = std::min(lo + 1, v.size() - 1);
-    return v[lo] + (pos - lo) * (v[hi] - v[lo]);
-}
 
 // One test take: the rendering (with noise and padding) and its truth.
 struct TestTake {
