@@ -5,12 +5,27 @@
 // alone, so the cost of each step can be read as a ratio. Counters:
 // x_realtime = audio seconds per wall second; dtw_MB = cost cells stored by
 // the larger DTW pass (4 bytes each) — bounded by the band, not take × reference.
+//
+// Word evidence on the same paragraph (issue 10): model alignment (two
+// passes) + GOP scores, goal <= 10 s on one core; the scan of the paragraph
+// as a take with its text (word evidence on) against the same scan without
+// text (word evidence off), goal >= 30x real time; and the peak memory of
+// word evidence on a long take (the paragraph three times, ≈ 6 min) —
+// peak_rss_mb only grows, so run that one alone:
+// `--benchmark_filter=wordEvidenceLongTake`.
+#include "earmark/acoustic/word_evidence.hpp"
 #include "earmark/align/mfcc.hpp"
 #include "earmark/align/speech_render.hpp"
 #include "earmark/align/text_aligner.hpp"
+#include "earmark/io/audio_file.hpp"
+#include "earmark/scan/scan_run.hpp"
 
 #include <benchmark/benchmark.h>
 
+#include <sys/resource.h>
+#include <unistd.h>
+
+#include <filesystem>
 #include <string>
 
 namespace {
@@ -91,8 +106,62 @@ void takeMfccOnly(benchmark::State& state) {
     for (auto _ : state) benchmark::DoNotOptimize(earmark::computeMfcc(p.take).values.data());
 }
 
+double peakRssMb() {
+    rusage u{};
+    getrusage(RUSAGE_SELF, &u);
+    return static_cast<double>(u.ru_maxrss) / 1024.0;  // KiB on Linux
+}
+
+void realtimeCounter(benchmark::State& state, double audioS) {
+    state.counters["audio_s"] = audioS;
+    state.counters["x_realtime"] =
+        benchmark::Counter(audioS * static_cast<double>(state.iterations()), benchmark::Counter::kIsRate);
+}
+
+void wordEvidenceParagraph(benchmark::State& state) {
+    const Paragraph& p = paragraph();
+    for (auto _ : state) benchmark::DoNotOptimize(earmark::gatherWordEvidence(p.take, p.text).meanConfidence);
+    realtimeCounter(state, p.take.durationSeconds());
+}
+
+// The paragraph as a WAV file, scanned as one take (one worker), with its
+// text (range 1: word evidence) or without (range 0: the same scan, no words).
+void scanParagraph(benchmark::State& state) {
+    const Paragraph& p = paragraph();
+    namespace fs = std::filesystem;
+    const fs::path wav = fs::temp_directory_path() / ("earmark-align-bench-" + std::to_string(::getpid()) + ".wav");
+    earmark::writeWav(wav.string(), p.take);
+    earmark::ScanItem item;
+    item.id = "paragraph";
+    item.audioPath = wav.string();
+    item.voice = "en-us";
+    if (state.range(0) != 0) item.text = p.text;
+    earmark::ScanSettings settings;
+    settings.jobs = 1;
+    for (auto _ : state) benchmark::DoNotOptimize(earmark::scanTake(item, settings).suspects.size());
+    fs::remove(wav);
+    realtimeCounter(state, p.take.durationSeconds());
+}
+
+void wordEvidenceLongTake(benchmark::State& state) {
+    const Paragraph& p = paragraph();
+    earmark::Signal take = p.take;
+    std::string text;
+    for (int i = 0; i < 3; ++i) text += p.text;
+    for (int i = 0; i < 2; ++i) take.samples.insert(take.samples.end(), p.take.samples.begin(), p.take.samples.end());
+    const double before = peakRssMb();
+    for (auto _ : state) benchmark::DoNotOptimize(earmark::gatherWordEvidence(take, text).meanConfidence);
+    realtimeCounter(state, take.durationSeconds());
+    state.counters["peak_rss_mb"] = peakRssMb();
+    state.counters["rss_growth_mb"] = peakRssMb() - before;
+    state.counters["audio_f32_mb"] = static_cast<double>(take.samples.size()) * sizeof(float) / 1e6;
+}
+
 }  // namespace
 
+BENCHMARK(wordEvidenceParagraph)->Unit(benchmark::kMillisecond)->Iterations(2)->UseRealTime();
+BENCHMARK(scanParagraph)->ArgName("words")->Arg(0)->Arg(1)->Unit(benchmark::kMillisecond)->Iterations(2)->UseRealTime();
+BENCHMARK(wordEvidenceLongTake)->Unit(benchmark::kMillisecond)->Iterations(1)->UseRealTime();
 BENCHMARK(alignParagraph)->Unit(benchmark::kMillisecond)->MinTime(3.0);
 BENCHMARK(renderReferenceOnly)->Unit(benchmark::kMillisecond);
 BENCHMARK(takeMfccOnly)->Unit(benchmark::kMillisecond);
