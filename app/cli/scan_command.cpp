@@ -9,11 +9,13 @@
 #include "earmark/core/error.hpp"
 #include "earmark/scan/scan_report.hpp"
 #include "earmark/scan/scan_session.hpp"
+#include "earmark/scan/shard_environment.hpp"
 
 #include <unistd.h>
 
 #include <cmath>
 #include <cstdio>
+#include <cstdlib>
 #include <optional>
 #include <string>
 
@@ -27,7 +29,8 @@ Arguments makeArguments() {
             {"out", "FILE|-", "-", "ranked takes as CSV (RFC 4180); - = stdout"},
             {"json", "FILE|-", "", "also write the ranked takes as JSON, with every suspect's value and span"},
             {"jobs", "N", "all cores", "takes analysed at once (one thread each)"},
-            {"shard", "K/N", "1/1", "scan only part K of N (split by a hash of each take's id)"},
+            {"shard", "K/N|auto", "1/1", "scan only part K of N (split by a hash of each take's id); auto[/N] = "
+                                         "this task of a Slurm job array or Kubernetes indexed job"},
             {"rules", "FILE", "built in", "thresholds as JSON (see docs/rules-default.json)"},
             {"voice", "NAME", "en-us", "voice of takes whose manifest row names none; English voices get word "
                                        "evidence (pronunciation and script coverage)"},
@@ -65,9 +68,19 @@ int runScan(const std::vector<std::string>& argv) {
         settings.jobs = static_cast<int>(*jobs);
     }
     Shard shard;
+    std::string shardSource;
     if (auto s = args.value("shard")) {
         try {
-            shard = Shard::parse(*s);
+            if (isAutoShard(*s)) {
+                const auto fromEnvironment = shardFromEnvironment(*s, [](const std::string& name) {
+                    const char* v = std::getenv(name.c_str());
+                    return v ? std::optional<std::string>(v) : std::nullopt;
+                });
+                shard = fromEnvironment.shard;
+                shardSource = ", from " + fromEnvironment.source;
+            } else {
+                shard = Shard::parse(*s);
+            }
         } catch (const ParamError& e) {
             throw UsageError("--shard " + e.problem());
         }
@@ -108,7 +121,7 @@ int runScan(const std::vector<std::string>& argv) {
     std::fprintf(stderr, "scan: %zu of %zu take(s) scanned%s: %d with suspects, %d unreadable\n",
                  report.rows.size(), items.size(),
                  shard.parts > 1 ? (" (shard " + std::to_string(shard.part) + "/" + std::to_string(shard.parts) +
-                                    " of " + std::to_string(listed.size()) + ")").c_str()
+                                    " of " + std::to_string(listed.size()) + shardSource + ")").c_str()
                                  : "",
                  flagged, failed);
     if (report.partial) {
