@@ -4,9 +4,11 @@
 #include "arguments.hpp"
 #include "commands.hpp"
 #include "exit_codes.hpp"
+#include "output_file.hpp"
 #include "rater_option.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/export/defect_list.hpp"
 #include "earmark/marks/mark_measures.hpp"
 #include "earmark/prosody/transcript.hpp"
 #include "earmark/store/session.hpp"
@@ -105,17 +107,25 @@ int runList(const Arguments& args) {
     if (auto key = args.value("take")) take = requireTake(session, *key);
     std::map<TakeId, std::string> lineOf;
     for (const Take& t : session.takes()) lineOf[t.id] = t.lineId.empty() ? t.storedAudioPath : t.lineId;
+    if (auto json = args.value("json")) {
+        writeTextOutput(*json, defectListToJson(collectDefects(session, take)));
+        if (*json == "-") return kExitOk;  // stdout holds the JSON instead of the table
+    }
     const auto marks = session.marks(take);
-    std::printf("%5s  %5s  %-14s %-19s %-26s %-8s %s\n", "id", "take", "line", "span", "category", "severity",
-                "words / note");
+    std::printf("%5s  %5s  %-14s %-19s %-26s %-8s %-12s %s\n", "id", "take", "line", "span", "category", "severity",
+                "rater", "words / note");
     for (const Mark& m : marks) {
         std::string detail = m.words;
         if (!m.note.empty()) detail += (detail.empty() ? "" : " / ") + m.note;
         for (char& c : detail)
             if (c == '\n' || c == '\r' || c == '\t') c = ' ';
-        std::printf("%5lld  %5lld  %-14s %-19s %-26s %-8s %s\n", static_cast<long long>(m.id),
+        std::string rater = m.rater.empty() ? "-" : m.rater;
+        for (char& c : rater)
+            if (c == '\n' || c == '\r' || c == '\t') c = ' ';
+        std::printf("%5lld  %5lld  %-14s %-19s %-26s %-8s %-12s %s\n", static_cast<long long>(m.id),
                     static_cast<long long>(m.takeId), lineOf[m.takeId].c_str(), spanText(m).c_str(),
-                    kindText(m).c_str(), std::string(severityName(m.severity)).c_str(), detail.c_str());
+                    kindText(m).c_str(), std::string(severityName(m.severity)).c_str(), rater.c_str(),
+                    detail.c_str());
     }
     std::fprintf(stderr, "%zu mark(s)\n", marks.size());
     return kExitOk;
@@ -147,8 +157,10 @@ const std::map<std::string, Action>& actions() {
            raterOption()},
           runAdd}},
         {"list",
-         {"FILE [--take ID]", "list marks by queue order and time",
-          {{"take", "ID", "", "only the marks of this take"}},
+         {"FILE [--take ID] [--json FILE|-]", "list marks by queue order and time, with their rater",
+          {{"take", "ID", "", "only the marks of this take"},
+           {"json", "FILE|-", "", "also write them as a defect list JSON (docs/defect-list.md; each mark's "
+                                  "\"rater\"); - = stdout, instead of the table"}},
           runList}},
         {"delete", {"FILE --id N", "delete one mark", {{"id", "N", "", "the mark's id"}, raterOption()}, runDelete}},
     };

@@ -26,6 +26,13 @@ tmp="$(mktemp -d /tmp/earmark-slurm.XXXXXX)"
 pids=()
 cleanup() {
     local status=$?
+    # Jobs still running (a failure or a timeout) are cancelled first, so no
+    # slurmstepd or scan outlives the daemons. This private cluster holds only
+    # this test's jobs.
+    if [[ ${SLURM_CONF:-} == "$tmp/slurm.conf" ]] && squeue -h -o %i 2>/dev/null | grep -q .; then
+        scancel --user="$(id -un)" 2>/dev/null || true
+        for _ in $(seq 100); do squeue -h -o %i 2>/dev/null | grep -q . || break; sleep 0.1; done
+    fi
     for pid in "${pids[@]}"; do kill "$pid" 2>/dev/null || true; done
     for pid in "${pids[@]}"; do
         for _ in $(seq 50); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
