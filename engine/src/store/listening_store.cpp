@@ -47,7 +47,7 @@ ListeningTestInfo ListeningStore::createTest(const listening::TestDesign& design
     const std::string now = store::utcNowIso8601();
     insert.bind(1, design.name).bind(2, listening::kindName(design.kind)).bind(3, listening::designToJson(design));
     insert.bind(4, now).run();
-    const std::int64_t id = sqlite3_last_insert_rowid(db.get());
+    const std::int64_t id = db.lastInsertId();
     store::Statement trial(db,
                            "INSERT INTO listening_trials (test_id, slot, position, line_id, kind, repeat_of, stimuli) "
                            "VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7)",

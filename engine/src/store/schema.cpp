@@ -1,4 +1,5 @@
 #include "schema.hpp"
+#include "sql_dialect.hpp"
 
 #include "earmark/store/session.hpp"
 
@@ -150,10 +151,22 @@ int pragmaInt(const Db& db, const char* sql) {
     return st.step() ? static_cast<int>(st.integer(0)) : 0;
 }
 
+// PostgreSQL has no file header: the same two numbers sit in one row of
+// earmark_schema; a database without that table is not a session (0).
+int serverSchemaValue(const Db& db, const char* column) {
+    Statement exists(db, "SELECT to_regclass('earmark_schema') IS NOT NULL", "reading the schema version");
+    if (!exists.step() || exists.integer(0) == 0) return 0;
+    return pragmaInt(db, (std::string("SELECT ") + column + " FROM earmark_schema").c_str());
+}
+
 }  // namespace
 
-int userVersion(const Db& db) { return pragmaInt(db, "PRAGMA user_version"); }
-int applicationId(const Db& db) { return pragmaInt(db, "PRAGMA application_id"); }
+int userVersion(const Db& db) {
+    return db.postgres() ? serverSchemaValue(db, "version") : pragmaInt(db, "PRAGMA user_version");
+}
+int applicationId(const Db& db) {
+    return db.postgres() ? serverSchemaValue(db, "application_id") : pragmaInt(db, "PRAGMA application_id");
+}
 
 void migrate(const Db& db, int toVersion) {
     WriteTransaction tx(db, "upgrading the session to schema " + std::to_string(toVersion));
@@ -162,9 +175,18 @@ void migrate(const Db& db, int toVersion) {
     if (from >= toVersion) return;
     for (const Migration& m : kMigrations)
         if (m.toVersion > from && m.toVersion <= toVersion)
-            exec(db, m.sql, "upgrading the session to schema " + std::to_string(m.toVersion));
-    exec(db, ("PRAGMA user_version = " + std::to_string(toVersion)).c_str(),
-         "upgrading the session to schema " + std::to_string(toVersion));
+            exec(db, db.postgres() ? postgresSchema(m.sql).c_str() : m.sql,
+                 "upgrading the session to schema " + std::to_string(m.toVersion));
+    const std::string doing = "upgrading the session to schema " + std::to_string(toVersion);
+    if (!db.postgres()) {
+        exec(db, ("PRAGMA user_version = " + std::to_string(toVersion)).c_str(), doing);
+    } else {
+        if (from == 0)
+            exec(db, "CREATE TABLE earmark_schema (application_id BIGINT NOT NULL, version BIGINT NOT NULL)", doing);
+        exec(db, "DELETE FROM earmark_schema", doing);
+        Statement set(db, "INSERT INTO earmark_schema (application_id, version) VALUES (?1, ?2)", doing);
+        set.bind(1, kApplicationId).bind(2, toVersion).run();
+    }
     tx.commit();
 }
 

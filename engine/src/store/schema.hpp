@@ -2,7 +2,7 @@
 // to Session::kSchemaVersion. Private to the store.
 #pragma once
 
-#include "sqlite_db.hpp"
+#include "db.hpp"
 
 namespace earmark::store {
 

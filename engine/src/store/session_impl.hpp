@@ -2,7 +2,7 @@
 #pragma once
 
 #include "earmark/store/session.hpp"
-#include "sqlite_db.hpp"
+#include "db.hpp"
 
 #include <filesystem>
 #include <string>

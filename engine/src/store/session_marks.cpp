@@ -62,14 +62,18 @@ void bindDraft(Statement& st, const MarkDraft& d) {
 }
 
 void insertMark(const store::Db& db, const Mark& m) {
+    // A restored mark keeps its id; a new one gets the next (the id column is
+    // left out: PostgreSQL's identity column takes no NULL).
+    const bool keepId = m.id > 0;
     Statement st(db,
-                 "INSERT INTO marks (category, subtype, severity, start_s, end_s, words, note, rater, measures, "
-                 "take_id, created_utc, updated_utc, id) VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, "
-                 "?12, ?13)",
+                 std::string("INSERT INTO marks (category, subtype, severity, start_s, end_s, words, note, rater, "
+                             "measures, take_id, created_utc, updated_utc") +
+                     (keepId ? ", id" : "") + ") VALUES (?1, ?2, ?3, ?4, ?5, ?6, ?7, ?8, ?9, ?10, ?11, ?12" +
+                     (keepId ? ", ?13" : "") + ")",
                  "saving a mark");
     bindDraft(st, m);
     st.bind(10, m.takeId).bind(11, m.createdUtc).bind(12, m.updatedUtc);
-    if (m.id > 0) st.bind(13, m.id);  // a restored mark keeps its id; unbound = NULL = a new id
+    if (keepId) st.bind(13, m.id);
     st.run();
 }
 
@@ -134,7 +138,7 @@ MarkEdit Session::addMark(TakeId takeId, const MarkDraft& draft) {
     m.takeId = takeId;
     m.createdUtc = m.updatedUtc = store::utcNowIso8601();
     insertMark(impl_->db, m);
-    m.id = sqlite3_last_insert_rowid(impl_->db.get());
+    m.id = impl_->db.lastInsertId();
     impl_->record(takeId, m.id, HistoryAction::MarkAdded, historyDetail(m));
     MarkEdit edit{std::nullopt, m, takeId, take.status, ReviewStatus::HasMarks};
     if (edit.statusBefore != edit.statusAfter) impl_->writeStatus(takeId, edit.statusAfter);

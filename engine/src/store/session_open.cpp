@@ -1,7 +1,9 @@
 // Creating and opening session files: checks that the file is a session this
 // build can read, upgrades older schemas and sets the connection up.
+#include "pg_connect.hpp"
 #include "schema.hpp"
 #include "session_impl.hpp"
+#include "earmark/store/session_address.hpp"
 #include "earmark/store/utc_clock.hpp"
 
 #include "earmark/core/error.hpp"
@@ -71,7 +73,7 @@ Db openConnection(const std::string& path, Access access, const std::string& sho
     const std::string name = access == Access::Immutable ? fileUri(path) + "?immutable=1" : path;
     if (access == Access::Immutable) flags |= SQLITE_OPEN_URI;
     const int rc = sqlite3_open_v2(name.c_str(), &raw, flags, nullptr);
-    Db db{store::DbHandle(raw), shownAs.empty() ? path : shownAs};
+    Db db{store::DbHandle(raw), {}, shownAs.empty() ? path : shownAs};
     if (rc != SQLITE_OK) store::throwSqlite(db, rc, "opening the session");
     sqlite3_extended_result_codes(raw, 1);
     sqlite3_busy_timeout(raw, store::kBusyTimeoutMs);
@@ -108,6 +110,12 @@ void removeSessionFiles(const std::string& path) {
     for (const char* suffix : {"", "-wal", "-shm", "-journal"}) fs::remove(path + suffix, ec);
 }
 
+void recordCreation(const Db& db) {
+    store::Statement info(db, "INSERT INTO session_info (key, value) VALUES ('created_utc', ?1)",
+                          "creating the session");
+    info.bind(1, store::utcNowIso8601()).run();
+}
+
 // Creates the file exclusively (so an existing file is never taken over) and
 // migrates it to `version`. On failure nothing is left behind.
 Db createFile(const std::string& path, int version, const std::string& shownAs = {}) {
@@ -126,14 +134,34 @@ Db createFile(const std::string& path, int version, const std::string& shownAs =
         Db db = openConnection(path, Access::ReadWrite, shownAs);
         configureWritable(db);
         store::migrate(db, version);
-        store::Statement info(db, "INSERT INTO session_info (key, value) VALUES ('created_utc', ?1)",
-                              "creating the session");
-        info.bind(1, store::utcNowIso8601()).run();
+        recordCreation(db);
         return db;
     } catch (...) {
         removeSessionFiles(path);
         throw;
     }
+}
+
+// A session in an empty PostgreSQL database (its schema and first row in
+// one transaction: DDL is transactional there, so a failure leaves nothing).
+// `fill` runs inside that transaction too.
+Db createOnServer(const std::string& uri, int version, const std::function<void(const Db&)>& fill = {}) {
+    Db db = store::connectPostgres(uri);
+    store::WriteTransaction tx(db, "creating the session");
+    if (store::userVersion(db) != 0)
+        throw InputError(db.path, "already holds an Earmark session; choose another database or remove it first");
+    store::migrate(db, version);  // nested: joins this transaction
+    recordCreation(db);
+    if (fill) fill(db);
+    tx.commit();
+    return db;
+}
+
+// Audio paths of a server session are stored absolute (it has no folder of its own).
+std::unique_ptr<Session::Impl> serverImpl(Db db) {
+    auto impl = std::make_unique<Session::Impl>();
+    impl->db = std::move(db);
+    return impl;
 }
 
 }  // namespace
@@ -144,6 +172,7 @@ Session& Session::operator=(Session&&) noexcept = default;
 Session::~Session() = default;
 
 Session Session::create(const std::string& path) {
+    if (isServerSession(path)) return Session(serverImpl(createOnServer(path, kSchemaVersion)));
     auto impl = std::make_unique<Impl>();
     impl->db = createFile(path, kSchemaVersion);
     impl->folder = fs::absolute(path).parent_path().lexically_normal();
@@ -151,6 +180,21 @@ Session Session::create(const std::string& path) {
 }
 
 void Session::createWhole(const std::string& path, const std::function<void(Session&)>& fill) {
+    if (isServerSession(path)) {
+        // One transaction: the session appears whole or not at all.
+        Db db = store::connectPostgres(path);
+        Session session(serverImpl(std::move(db)));
+        session.inOneTransaction("creating the session", [&] {
+            const Db& conn = session.impl_->db;
+            if (store::userVersion(conn) != 0)
+                throw InputError(conn.path,
+                                 "already holds an Earmark session; choose another database or remove it first");
+            store::migrate(conn, kSchemaVersion);
+            recordCreation(conn);
+            fill(session);
+        });
+        return;
+    }
     const fs::path target = fs::absolute(path).lexically_normal();
     std::error_code ec;
     if (fs::exists(target, ec)) throw InputError(path, "already exists; choose another name or remove it first");
@@ -181,7 +225,30 @@ void Session::createWhole(const std::string& path, const std::function<void(Sess
     syncFolder(folder);
 }
 
+Session Session::openOnServer(const std::string& uri, OpenMode mode) {
+    auto impl = serverImpl(store::connectPostgres(uri));
+    impl->readOnly = mode == OpenMode::ReadOnly;
+    const Db& db = impl->db;
+    const int version = store::userVersion(db);
+    if (version == 0 || store::applicationId(db) != store::kApplicationId)
+        throw InputError(db.path, "is not an Earmark session (this database holds no Earmark schema)");
+    if (version > kSchemaVersion)
+        throw InputError(db.path, "was written by a newer Earmark (session schema " + std::to_string(version) +
+                                      "; this version reads up to " + std::to_string(kSchemaVersion) +
+                                      "). It was not changed; open it with a newer Earmark");
+    if (impl->readOnly) {
+        if (version < kSchemaVersion)
+            throw InputError(db.path, "uses the older session schema " + std::to_string(version) +
+                                          "; open it once for writing to upgrade it");
+        store::exec(db, "SET default_transaction_read_only = on", "opening the session");
+    } else if (version < kSchemaVersion) {
+        store::migrate(db, kSchemaVersion);
+    }
+    return Session(std::move(impl));
+}
+
 Session Session::open(const std::string& path, OpenMode mode) {
+    if (isServerSession(path)) return openOnServer(path, mode);
     checkExistingFile(path);
     const bool readOnly = mode == OpenMode::ReadOnly;
     const fs::path folder = fs::absolute(path).parent_path().lexically_normal();
@@ -246,6 +313,13 @@ void Session::inOneTransaction(const std::string& doing, const std::function<voi
 bool Session::readOnly() const { return impl_->readOnly; }
 
 std::string Session::integrityCheck() const {
+    if (impl_->db.postgres()) {
+        // The server keeps its own pages consistent; what can be wrong here is the schema.
+        const int version = store::userVersion(impl_->db);
+        return version == kSchemaVersion ? "ok"
+                                         : "session schema " + std::to_string(version) + ", expected " +
+                                               std::to_string(kSchemaVersion);
+    }
     store::Statement st(impl_->db, "PRAGMA integrity_check", "checking the session");
     std::string result;
     while (st.step()) {
@@ -259,7 +333,8 @@ void createSessionAtSchemaVersion(const std::string& path, int version) {
     if (version < 1 || version > Session::kSchemaVersion)
         throw ParamError("createSessionAtSchemaVersion.version",
                          "must be 1 to " + std::to_string(Session::kSchemaVersion));
-    createFile(path, version);
+    if (isServerSession(path)) createOnServer(path, version);
+    else createFile(path, version);
 }
 
 void Session::Impl::requireWritable(const std::string& doing) const {

@@ -55,6 +55,7 @@ void checkTierRow(const TierRow& row) {
 
 std::string Session::Impl::storedAudioPath(const std::string& audioPath) const {
     const fs::path absolute = fs::absolute(audioPath).lexically_normal();
+    if (folder.empty()) return absolute.generic_string();  // a server session: no folder of its own
     // Lexical (not symlink-resolving), so a folder moved together with its
     // session keeps working even when it was reached through a link.
     const fs::path relative = absolute.lexically_relative(folder);
@@ -139,7 +140,7 @@ std::vector<TakeId> Session::addTakes(const std::vector<NewTake>& newTakes) {
         insert.bind(5, p.info.durationSeconds()).bind(6, p.info.sampleRate).bind(7, p.info.channels).bind(8, now);
         insert.run();
         insert.reset();
-        ids.push_back(sqlite3_last_insert_rowid(impl_->db.get()));
+        ids.push_back(impl_->db.lastInsertId());
     }
     tx.commit();
     return ids;
@@ -176,6 +177,13 @@ std::optional<TakeId> Session::findTake(std::string_view key) const {
     };
     if (auto id = unique([&](const Take& t) { return t.lineId == key; })) return id;
     if (auto id = unique([&](const Take& t) { return t.storedAudioPath == key; })) return id;
+    // The trailing folders and name ("takes/b.wav"): a server session stores absolute paths.
+    const std::string tail = "/" + std::string(key);
+    if (auto id = unique([&](const Take& t) {
+            return t.storedAudioPath.size() > tail.size() &&
+                   t.storedAudioPath.compare(t.storedAudioPath.size() - tail.size(), tail.size(), tail) == 0;
+        }))
+        return id;
     return unique([&](const Take& t) { return fs::path(t.storedAudioPath).filename() == fs::path(key); });
 }
 

@@ -18,7 +18,12 @@ namespace {
 using ::testing::HasSubstr;
 using listening::SystemRole;
 using listening::TestKind;
+using test::Backend;
 using test::TempDir;
+
+class ListeningOnBoth : public test::OnBothBackends {};
+INSTANTIATE_TEST_SUITE_P(Backends, ListeningOnBoth, ::testing::Values(Backend::File, Backend::Server),
+                         test::backendName);
 
 listening::TestDesign mosDesign(int raters = 2) {
     listening::TestDesign d;
@@ -48,9 +53,9 @@ std::string planSignature(const listening::Plan& p) {
     return out;
 }
 
-TEST(ListeningStore, RecordsThePlanAndBindsRatersToSlots) {
+TEST_P(ListeningOnBoth, RecordsThePlanAndBindsRatersToSlots) {
     TempDir dir;
-    Session s = Session::create(dir.file("s.earmark"));
+    Session s = Session::create(test::newSessionAddress(dir, GetParam()));
     ListeningStore store(s);
     const auto info = store.createTest(mosDesign());
     EXPECT_EQ(info.raterSlots, 2);
@@ -66,9 +71,9 @@ TEST(ListeningStore, RecordsThePlanAndBindsRatersToSlots) {
     EXPECT_EQ(store.tests().at(0).ratersJoined, 2);
 }
 
-TEST(ListeningStore, EachTrialIsCommittedAtOnceAndSurvivesAKill) {
+TEST_P(ListeningOnBoth, EachTrialIsCommittedAtOnceAndSurvivesAKill) {
     TempDir dir;
-    const std::string file = dir.file("s.earmark");
+    const std::string file = test::newSessionAddress(dir, GetParam());
     {
         Session s = Session::create(file);
         ListeningStore(s).createTest(mosDesign());
@@ -102,9 +107,9 @@ TEST(ListeningStore, EachTrialIsCommittedAtOnceAndSurvivesAKill) {
     EXPECT_THROW(store.recordTrial("round-1", "zed", 2, {3}), InputError);  // not joined
 }
 
-TEST(ListeningStore, ImportLandsWholeOrNotAtAll) {
+TEST_P(ListeningOnBoth, ImportLandsWholeOrNotAtAll) {
     TempDir dir;
-    Session s = Session::create(dir.file("s.earmark"));
+    Session s = Session::create(test::newSessionAddress(dir, GetParam()));
     ListeningStore store(s);
     store.createTest(mosDesign());
     using listening::Answer;
@@ -119,9 +124,9 @@ TEST(ListeningStore, ImportLandsWholeOrNotAtAll) {
     EXPECT_EQ(store.raters("round-1"), (std::vector<std::string>{"ext-1"}));
 }
 
-TEST(ListeningStore, OlderSessionsUpgradeAndKeepTheirContent) {
+TEST_P(ListeningOnBoth, OlderSessionsUpgradeAndKeepTheirContent) {
     TempDir dir;
-    const std::string file = dir.file("old.earmark");
+    const std::string file = test::newSessionAddress(dir, GetParam());
     createSessionAtSchemaVersion(file, 2);
     Session s = Session::open(file);
     ListeningStore store(s);

@@ -20,9 +20,14 @@ using test::TempDir;
 using test::writeTake;
 
 using Fixture = test::TwoTakeSession;
+using test::Backend;
 
-TEST(Raters, EveryChangeIsRecordedWithItsRaterAndTime) {
-    Fixture f;
+// The tests that hold for a session file and a server session alike.
+class RatersStore : public test::OnBothBackends {};
+INSTANTIATE_TEST_SUITE_P(Backends, RatersStore, ::testing::Values(Backend::File, Backend::Server), test::backendName);
+
+TEST_P(RatersStore, EveryChangeIsRecordedWithItsRaterAndTime) {
+    Fixture f(GetParam());
     f.session.setRater("ann");
     MarkDraft d = draftAt(0.5, 1.0);
     d.rater.clear();  // takes the session's rater
@@ -62,8 +67,8 @@ TEST(Raters, EveryChangeIsRecordedWithItsRaterAndTime) {
     EXPECT_EQ(f.session.take(f.a).statusRater, "bo");  // deleting the last mark set it back to in-review
 }
 
-TEST(Raters, UndoAndRedoAreRecordedAsTheActingRater) {
-    Fixture f;
+TEST_P(RatersStore, UndoAndRedoAreRecordedAsTheActingRater) {
+    Fixture f(GetParam());
     f.session.setRater("ann");
     const MarkEdit added = f.session.addMark(f.a, draftAt(0.2, 0.4));
     f.session.setRater("cy");
@@ -80,8 +85,8 @@ TEST(Raters, UndoAndRedoAreRecordedAsTheActingRater) {
     EXPECT_EQ(f.session.mark(added.markId()).rater, "tester");  // the mark keeps who made it
 }
 
-TEST(Raters, ReviewersAreWhoMarkedOrJudgedATake) {
-    Fixture f;
+TEST_P(RatersStore, ReviewersAreWhoMarkedOrJudgedATake) {
+    Fixture f(GetParam());
     f.session.setRater("ann");
     f.session.addMark(f.a, draftAt(0.2, 0.4));  // draft's rater: "tester"
     f.session.setStatus(f.b, ReviewStatus::InReview);  // started, not judged
@@ -94,8 +99,8 @@ TEST(Raters, ReviewersAreWhoMarkedOrJudgedATake) {
     EXPECT_EQ(r.at(f.b), (std::set<std::string>{"bo"}));
 }
 
-TEST(Raters, AssignmentsReplaceAndRefuseBadRows) {
-    Fixture f;
+TEST_P(RatersStore, AssignmentsReplaceAndRefuseBadRows) {
+    Fixture f(GetParam());
     f.session.setAssignments({{f.b, "bo"}, {f.a, "bo"}, {f.a, "ann"}});
     EXPECT_EQ(f.session.assignments(), (std::vector<Assignment>{{f.a, "ann"}, {f.a, "bo"}, {f.b, "bo"}}));
     EXPECT_THROW(f.session.setAssignments({{f.a, "ann"}, {f.a, "ann"}}), ParamError);
@@ -106,8 +111,8 @@ TEST(Raters, AssignmentsReplaceAndRefuseBadRows) {
     EXPECT_TRUE(f.session.assignments().empty());
 }
 
-TEST(Raters, BadRaterNamesAreRefused) {
-    Fixture f;
+TEST_P(RatersStore, BadRaterNamesAreRefused) {
+    Fixture f(GetParam());
     EXPECT_THROW(f.session.setRater(std::string(MarkDraft::kMaxRaterBytes + 1, 'x')), ParamError);
     EXPECT_THROW(f.session.setRater("tab\nnewline"), ParamError);
     EXPECT_THROW(f.session.setRater("\xff"), ParamError);

@@ -22,6 +22,11 @@ using test::TempDir;
 using test::writeTake;
 
 using Fixture = test::TwoTakeSession;
+using test::Backend;
+
+// The tests that hold for a session file and a server session alike.
+class SessionStore : public test::OnBothBackends {};
+INSTANTIATE_TEST_SUITE_P(Backends, SessionStore, ::testing::Values(Backend::File, Backend::Server), test::backendName);
 
 TEST(Session, CreateRefusesAnExistingFile) {
     TempDir dir;
@@ -53,8 +58,8 @@ TEST(Session, TakesKeepQueueOrderAndPathsRelativeToTheSession) {
     EXPECT_THROW(f.session.setQueueOrder({f.b}), ParamError);
 }
 
-TEST(Session, RefusesTheSameAudioTwiceAndAddsNothing) {
-    Fixture f;
+TEST_P(SessionStore, RefusesTheSameAudioTwiceAndAddsNothing) {
+    Fixture f(GetParam());
     const std::string c = writeTake(f.dir.file("takes/c.wav"));
     EXPECT_THROW(f.session.addTakes({{c, "", "", ""}, {f.dir.file("takes/a.wav"), "", "", ""}}), InputError);
     EXPECT_EQ(f.session.takes().size(), 2u);  // c was not added either: one transaction
@@ -63,8 +68,8 @@ TEST(Session, RefusesTheSameAudioTwiceAndAddsNothing) {
     EXPECT_THROW(f.session.addTakes({{c, "", "bad \xFF text", ""}}), ParamError);
 }
 
-TEST(Session, FindsTakesByIdLineIdOrFileName) {
-    Fixture f;
+TEST_P(SessionStore, FindsTakesByIdLineIdOrFileName) {
+    Fixture f(GetParam());
     EXPECT_EQ(f.session.findTake(std::to_string(f.b)), f.b);
     EXPECT_EQ(f.session.findTake("line-a"), f.a);
     EXPECT_EQ(f.session.findTake("b.wav"), f.b);
@@ -138,8 +143,8 @@ TEST(Session, MovedFolderKeepsWorkingAndMissingAudioCanBeRelocated) {
     EXPECT_NEAR(s.take(id).durationSeconds, 2.5, 1e-9);
 }
 
-TEST(Session, TiersRoundTripAndFillTheWordsOfMarks) {
-    Fixture f;
+TEST_P(SessionStore, TiersRoundTripAndFillTheWordsOfMarks) {
+    Fixture f(GetParam());
     const std::vector<TierRow> rows = {{"words", 0.10, 0.40, "mind"}, {"words", 0.40, 0.55, "the"},
                                        {"words", 0.55, 1.20, "gangway"}, {"phones", 0.10, 0.20, "m"}};
     EXPECT_TRUE(f.session.setTiers(f.a, rows).empty());
@@ -160,8 +165,8 @@ TEST(Session, TiersRoundTripAndFillTheWordsOfMarks) {
     EXPECT_THROW(f.session.setTiers(f.a, {{"words", 0.5, 0.4, "x"}}), ParamError);
 }
 
-TEST(Session, MarkEditsUndoAndRedoExactly) {
-    Fixture f;
+TEST_P(SessionStore, MarkEditsUndoAndRedoExactly) {
+    Fixture f(GetParam());
     const MarkEdit added = f.session.addMark(f.a, draftAt(0.5, 1.0));
     ASSERT_TRUE(added.after);
     const MarkId id = added.markId();
@@ -204,8 +209,8 @@ TEST(Session, MarkEditsUndoAndRedoExactly) {
     EXPECT_GT(next, id);
 }
 
-TEST(Session, UndoRefusesWhenTheMarkChangedElsewhere) {
-    Fixture f;
+TEST_P(SessionStore, UndoRefusesWhenTheMarkChangedElsewhere) {
+    Fixture f(GetParam());
     const MarkEdit added = f.session.addMark(f.a, draftAt(0.5, 1.0));
     Session other = Session::open(f.file);
     other.updateMark(added.markId(), draftAt(0.5, 1.5));
@@ -218,8 +223,8 @@ TEST(Session, UndoRefusesWhenTheMarkChangedElsewhere) {
     EXPECT_EQ(f.session.mark(added.markId()).endSeconds, 1.5);
 }
 
-TEST(Session, StatusRulesOnlyTouchWhatAMarkImplies) {
-    Fixture f;
+TEST_P(SessionStore, StatusRulesOnlyTouchWhatAMarkImplies) {
+    Fixture f(GetParam());
     EXPECT_EQ(f.session.setStatus(f.b, ReviewStatus::Skipped), ReviewStatus::Unreviewed);
     const MarkEdit e = f.session.addMark(f.b, draftAt(0.5, 1.0));
     EXPECT_EQ(f.session.take(f.b).status, ReviewStatus::HasMarks);
@@ -229,8 +234,8 @@ TEST(Session, StatusRulesOnlyTouchWhatAMarkImplies) {
     EXPECT_FALSE(f.session.take(f.b).statusUtc.empty());
 }
 
-TEST(Session, MarksAreValidatedAgainstTheirTake) {
-    Fixture f;
+TEST_P(SessionStore, MarksAreValidatedAgainstTheirTake) {
+    Fixture f(GetParam());
     EXPECT_THROW(f.session.addMark(f.a, draftAt(1.5, 2.5)), ParamError);  // take a lasts 2 s
     EXPECT_NO_THROW(f.session.addMark(f.b, draftAt(1.5, 2.5)));           // take b lasts 3 s
     EXPECT_THROW(f.session.addMark(999, draftAt(0.1, 0.2)), InputError);
@@ -241,8 +246,8 @@ TEST(Session, MarksAreValidatedAgainstTheirTake) {
     EXPECT_EQ(f.session.marks().size(), 1u);
 }
 
-TEST(Session, MarksComeInQueueOrderThenTime) {
-    Fixture f;
+TEST_P(SessionStore, MarksComeInQueueOrderThenTime) {
+    Fixture f(GetParam());
     const MarkId m1 = f.session.addMark(f.a, draftAt(1.0, 1.5)).markId();
     const MarkId m2 = f.session.addMark(f.b, draftAt(0.2, 0.5)).markId();
     const MarkId m3 = f.session.addMark(f.a, draftAt(0.1, 0.3)).markId();
@@ -258,8 +263,8 @@ TEST(Session, MarksComeInQueueOrderThenTime) {
     EXPECT_EQ(f.session.takes()[1].markCount, 2);
 }
 
-TEST(Session, MeasuresRoundTripBitExactly) {
-    Fixture f;
+TEST_P(SessionStore, MeasuresRoundTripBitExactly) {
+    Fixture f(GetParam());
     MarkDraft d = draftAt(0.1, 0.7);
     d.measures = {{"f0_mean_hz", 0.1 + 0.2}, {"energy_mean_db", -23.456789012345678}, {"tiny", 1e-300}};
     const MarkId id = f.session.addMark(f.a, d).markId();
@@ -268,8 +273,8 @@ TEST(Session, MeasuresRoundTripBitExactly) {
     EXPECT_EQ(other.mark(id).startSeconds, 0.1);
 }
 
-TEST(Session, SuspectsAreReplacedPerTake) {
-    Fixture f;
+TEST_P(SessionStore, SuspectsAreReplacedPerTake) {
+    Fixture f(GetParam());
     f.session.replaceSuspects(f.a, {{0, 0, "f0_range_st", 0.5, 2.0, 0.2, 1.8, "flat: 0.5 st"},
                                     {0, 0, "pause_s", 1.5, 1.0, 0.9, 1.0, "long pause"}});
     f.session.replaceSuspects(f.b, {{0, 0, "clipped", 120, 0, 0, 3.0, "clipping"}});
@@ -282,8 +287,8 @@ TEST(Session, SuspectsAreReplacedPerTake) {
     EXPECT_THROW(f.session.replaceSuspects(f.a, {{0, 0, "x", 1, 1, 2.0, 1.0, ""}}), ParamError);
 }
 
-TEST(Session, SecondConnectionSeesEveryCommittedChangeAtOnce) {
-    Fixture f;
+TEST_P(SessionStore, SecondConnectionSeesEveryCommittedChangeAtOnce) {
+    Fixture f(GetParam());
     const Session reader = Session::open(f.file, OpenMode::ReadOnly);
     EXPECT_TRUE(reader.marks().empty());
     const MarkId id = f.session.addMark(f.a, draftAt(0.5, 1.0)).markId();
@@ -292,8 +297,8 @@ TEST(Session, SecondConnectionSeesEveryCommittedChangeAtOnce) {
     EXPECT_TRUE(reader.marks().empty());
 }
 
-TEST(Session, ReadOnlySessionRefusesChanges) {
-    Fixture f;
+TEST_P(SessionStore, ReadOnlySessionRefusesChanges) {
+    Fixture f(GetParam());
     const MarkId id = f.session.addMark(f.a, draftAt(0.5, 1.0)).markId();
     Session reader = Session::open(f.file, OpenMode::ReadOnly);
     EXPECT_TRUE(reader.readOnly());

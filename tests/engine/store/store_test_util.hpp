@@ -6,6 +6,7 @@
 #include "earmark/io/audio_file.hpp"
 #include "earmark/marks/mark.hpp"
 #include "earmark/store/session.hpp"
+#include "support/pg_test_server.hpp"
 #include "support/temp_dir.hpp"
 #include "support/test_signals.hpp"
 
@@ -51,13 +52,43 @@ inline void rawSql(const std::string& path, const char* sql) {
     sqlite3_close(db);
 }
 
-// A new session with two takes (2 s and 3 s) in a takes/ folder beside it.
+// Where a test's session lives: an SQLite file, or a database on the test
+// run's PostgreSQL server.
+enum class Backend { File, Server };
+
+inline std::string backendName(const ::testing::TestParamInfo<Backend>& info) {
+    return info.param == Backend::File ? "SQLite" : "PostgreSQL";
+}
+
+// A new session address: `dir`/`name`, or a new empty database.
+inline std::string newSessionAddress(const TempDir& dir, Backend backend, const std::string& name = "s.earmark") {
+    if (backend == Backend::File) return dir.file(name);
+    PgTestServer* server = PgTestServer::shared(nullptr);
+    if (!server) throw std::runtime_error("no PostgreSQL server for this test");
+    return server->newDatabase();
+}
+
+// Tests run once per backend: TEST_P(OnBothBackends, …) with
+// INSTANTIATE_TEST_SUITE_P(…, OnBothBackends, ::testing::Values(Backend::File,
+// Backend::Server), backendName). Skipped, with the reason printed, where
+// the server binaries are missing.
+class OnBothBackends : public ::testing::TestWithParam<Backend> {
+protected:
+    void SetUp() override {
+        std::string why;
+        if (GetParam() == Backend::Server && !PgTestServer::shared(&why)) GTEST_SKIP() << why;
+    }
+};
+
+// A new session with two takes (2 s and 3 s) in a takes/ folder (beside it
+// for a file session).
 struct TwoTakeSession {
     TempDir dir;
-    std::string file = dir.file("s.earmark");
-    Session session = Session::create(file);
+    std::string file;
+    Session session;
     TakeId a = 0, b = 0;
-    TwoTakeSession() {
+    explicit TwoTakeSession(Backend backend = Backend::File)
+        : file(newSessionAddress(dir, backend)), session(Session::create(file)) {
         std::filesystem::create_directories(dir.path() / "takes");
         const auto ids = session.addTakes({{writeTake(dir.file("takes/a.wav"), 2.0), "line-a", "Text A.", "b1"},
                                            {writeTake(dir.file("takes/b.wav"), 3.0), "line-b", "Text B?", "b1"}});

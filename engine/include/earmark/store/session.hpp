@@ -2,6 +2,12 @@
 // queue of takes, their tiers, marks, review statuses and suspects. The file
 // layout is described in docs/session-store.md.
 //
+// Team sessions: wherever a path is taken, a PostgreSQL connection URI
+// ("postgresql://user@host/db", docs/team-sessions.md) names a session kept
+// in that database instead, with the same schema, rules and errors; messages
+// show the URI without its password. Writers take turns through one advisory
+// lock (like SQLite's write lock); audio paths are stored absolute there.
+//
 // Durability: every change is one SQLite transaction, committed before the
 // call returns; there is no "save". The file is in WAL mode with
 // synchronous=FULL, so a committed change survives a crash of the program and
@@ -178,6 +184,7 @@ public:
     struct Impl;
 
 private:
+    static Session openOnServer(const std::string& uri, OpenMode mode);
     friend class ListeningStore;  // listening tests live in the same file (store/listening_store.hpp)
     explicit Session(std::unique_ptr<Impl> impl);
     std::unique_ptr<Impl> impl_;
