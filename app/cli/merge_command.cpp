@@ -4,6 +4,7 @@
 #include "exit_codes.hpp"
 #include "output_file.hpp"
 
+#include "earmark/store/session_address.hpp"
 #include "earmark/scan/scan_report.hpp"
 #include "earmark/scan/scan_session.hpp"
 
@@ -37,7 +38,7 @@ int runMerge(const std::vector<std::string>& argv) {
     if (auto session = args.value("session")) {
         const auto s = writeScanSession(*session, merged);
         std::fprintf(stderr, "merge: session %s: %d take(s) added, %d updated, %d unreadable left out\n",
-                     session->c_str(), s.added, s.updated, s.skipped);
+                     shownSessionAddress(*session).c_str(), s.added, s.updated, s.skipped);
     }
     return kExitOk;
 }

@@ -6,6 +6,7 @@
 #include "output_file.hpp"
 #include "terminal_progress.hpp"
 
+#include "earmark/store/session_address.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/scan/scan_report.hpp"
 #include "earmark/scan/scan_session.hpp"
@@ -132,7 +133,7 @@ int runScan(const std::vector<std::string>& argv) {
     if (session) {
         const auto s = writeScanSession(*session, report, items);
         std::fprintf(stderr, "scan: session %s: %d take(s) added, %d updated, %d unreadable left out\n",
-                     session->c_str(), s.added, s.updated, s.skipped);
+                     shownSessionAddress(*session).c_str(), s.added, s.updated, s.skipped);
     }
     return kExitOk;
 }

@@ -10,6 +10,7 @@
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
 #include "earmark/store/session.hpp"
+#include "earmark/store/session_address.hpp"
 #include "earmark/store/take_list.hpp"
 #include "earmark/store/tier_rows.hpp"
 #include "earmark/tiers/timings_file.hpp"
@@ -64,8 +65,8 @@ void storeTiers(Session& session, TakeId id, const std::vector<TierRow>& rows, c
 
 int runNew(const Arguments& args) {
     const std::string& file = sessionFile(args, 1, "exactly one session FILE");
-    Session::create(file);
-    std::printf("created %s\n", file.c_str());
+    const Session session = Session::create(file);
+    std::printf("created %s\n", session.path().c_str());  // a URI without its password
     return kExitOk;
 }
 
@@ -92,7 +93,7 @@ int runAdd(const Arguments& args) {
         ids = session.addTakes(takes);
         if (!tiers.empty()) storeTiers(session, ids.front(), tiers, *args.value("timings"));
     });
-    std::printf("added %zu take(s) to %s (ids %lld-%lld)\n", ids.size(), file.c_str(),
+    std::printf("added %zu take(s) to %s (ids %lld-%lld)\n", ids.size(), session.path().c_str(),
                 static_cast<long long>(ids.front()), static_cast<long long>(ids.back()));
     return kExitOk;
 }
@@ -189,7 +190,8 @@ int runAssign(const Arguments& args) {
     for (const Assignment& a : drawn) ++load[a.rater], ++ratersOf[a.takeId];
     int shared = 0;
     for (const auto& [take, n] : ratersOf) shared += n > 1;
-    std::printf("assigned %zu take(s) of %s, %d of them to several raters (seed %llu)\n", queue.size(), file.c_str(),
+    std::printf("assigned %zu take(s) of %s, %d of them to several raters (seed %llu)\n", queue.size(),
+                session.path().c_str(),
                 shared, static_cast<unsigned long long>(params.seed));
     for (const auto& [rater, n] : load) std::printf("  %-20s %d take(s)\n", rater.c_str(), n);
     return kExitOk;
@@ -233,7 +235,7 @@ int runSalvage(const Arguments& args) {
         throw UsageError("expects the DAMAGED session file and a NEW file to create (see --help)");
     const auto r = Session::salvage(args.positionals()[0], args.positionals()[1]);
     std::printf("salvaged into %s: %d take(s), %d tier interval(s), %d suspect(s), %d mark(s)\n",
-                args.positionals()[1].c_str(), r.takes, r.tierIntervals, r.suspects, r.marks);
+                shownSessionAddress(args.positionals()[1]).c_str(), r.takes, r.tierIntervals, r.suspects, r.marks);
     const int lost = r.takesUnreadable + r.takesWithTiersLost + r.takesWithSuspectsLost + r.marksUnreadable +
                      r.marksOfLostTakes;
     if (lost > 0)
@@ -242,6 +244,19 @@ int runSalvage(const Arguments& args) {
                      "suspects, %d mark id(s) unreadable, %d mark(s) of unreadable takes\n",
                      r.takesUnreadable, r.takesWithTiersLost, r.takesWithSuspectsLost, r.marksUnreadable,
                      r.marksOfLostTakes);
+    return kExitOk;
+}
+
+int runCopy(const Arguments& args) {
+    if (args.positionals().size() != 2)
+        throw UsageError("expects the session to copy and a NEW session to create (see --help)");
+    const auto counts = Session::copy(args.positionals()[0], args.positionals()[1]);
+    std::printf("copied %s into %s:", shownSessionAddress(args.positionals()[0]).c_str(),
+                shownSessionAddress(args.positionals()[1]).c_str());
+    for (const char* table : {"takes", "marks", "tier_intervals", "suspects", "review_history", "assignments",
+                              "listening_answers"})
+        std::printf(" %d %s", counts.at(table), table);
+    std::printf("\n");
     return kExitOk;
 }
 
@@ -288,6 +303,11 @@ const std::map<std::string, Action>& actions() {
                          "a new session file",
           {},
           runSalvage}},
+        {"copy",
+         {"FROM NEW", "copy a whole session to a new one, between a file and a PostgreSQL server either way "
+                      "(every row and id; [team sessions](docs/team-sessions.md))",
+          {},
+          runCopy}},
         {"relocate",
          {"FILE (--take ID AUDIO | --folder DIR)",
           "point a take at moved audio, or find every missing take's file by name in DIR",

@@ -19,6 +19,7 @@
 // could not be shown or the image not written, 2 for bad arguments.
 #include "main_window.hpp"
 
+#include "earmark/store/session_address.hpp"
 #include "earmark/widgets/compare_window.hpp"
 #include "earmark/widgets/rating_window.hpp"
 
@@ -148,7 +149,9 @@ int main(int argc, char** argv) {
         return parser.isSet(screenshot) ? exitCode : code;
     }
     QString sessionPath;
-    if (arguments.size() == 1 && arguments.front().endsWith(QStringLiteral(".earmark"), Qt::CaseInsensitive))
+    // A session file, or a team session on a server (docs/team-sessions.md).
+    if (arguments.size() == 1 && (arguments.front().endsWith(QStringLiteral(".earmark"), Qt::CaseInsensitive) ||
+                                  earmark::isServerSession(arguments.front().toStdString())))
         sessionPath = arguments.front();
     if (parser.isSet(takeOption) && sessionPath.isEmpty()) return fail(QStringLiteral("--take needs a session (.earmark)"), 2);
     if (parser.isSet(rate)) {
@@ -229,7 +232,10 @@ int main(int argc, char** argv) {
     if (shooting) window.resize(windowSize);
     if (!sessionPath.isEmpty()) {
         if (!window.openSession(sessionPath)) {
-            if (shooting) return fail(QStringLiteral("%1: cannot open the session").arg(sessionPath), 1);
+            if (shooting) return fail(QStringLiteral("%1: cannot open the session")
+                                            .arg(QString::fromStdString(
+                                                earmark::shownSessionAddress(sessionPath.toStdString()))),
+                                        1);
         } else if (parser.isSet(takeOption) && !window.showSessionTake(parser.value(takeOption))) {
             return fail(QStringLiteral("%1: no take '%2' in the session").arg(sessionPath, parser.value(takeOption)), 2);
         }

@@ -156,6 +156,11 @@ const char* Statement::pgValue(int column) const {
     return PQgetvalue(result_, row_, column);
 }
 
+bool Statement::isNull(int column) const {
+    if (!db_.postgres()) return sqlite3_column_type(stmt_, column) == SQLITE_NULL;
+    return pgValue(column) == nullptr;
+}
+
 std::int64_t Statement::integer(int column) const {
     if (!db_.postgres()) return sqlite3_column_int64(stmt_, column);
     const char* v = pgValue(column);

@@ -83,6 +83,7 @@ public:
     void reset();
 
     // 0-based column index.
+    bool isNull(int column) const;
     std::int64_t integer(int column) const;
     double real(int column) const;
     std::string text(int column) const;

@@ -73,6 +73,14 @@ public:
     // Leftovers of killed processes (".NAME.new-PID…") are removed first.
     static void createWhole(const std::string& path, const std::function<void(Session&)>& fill);
 
+    // Copies a whole session to a new one, between any two kinds (file →
+    // server, server → file, …): every row of every table with its id, the
+    // id counters (ids handed out stay handed out), audio paths re-stored for
+    // the new place (they resolve to the same files). `to` is created whole
+    // (createWhole) or not at all. Returns the number of rows copied per
+    // table. InputError when `from` cannot be opened or `to` exists.
+    static std::map<std::string, int> copy(const std::string& from, const std::string& to);
+
     // What Session::salvage copied, and how many rows it could not read.
     struct SalvageReport {
         int takes = 0, tierIntervals = 0, suspects = 0, marks = 0;
