@@ -1,5 +1,5 @@
 // earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--voice VOICE] [--screenshot PATH [--size WxH]]
-//         [--view START:END] [--select START:END] [--predicted-mel FILE.npy]
+//         [--view START:END] [--select START:END] [--timings FILE] [--predicted-mel FILE.npy]
 //         [--attention FILE.npy --tokens FILE]
 // earmark SESSION.earmark --rate TEST [--rater NAME] [--screenshot PATH [--size WxH]]
 // earmark --compare A B [--text "…" | --words-a FILE --words-b FILE] [--screenshot PATH [--size WxH]]
@@ -92,11 +92,15 @@ int main(int argc, char** argv) {
                                   QStringLiteral("TEST"));
     const QCommandLineOption rater(QStringLiteral("rater"), QStringLiteral("With --rate: start (or resume) as this rater."),
                                    QStringLiteral("NAME"));
+    const QCommandLineOption timings(QStringLiteral("timings"),
+                                     QStringLiteral("Timings of the (first) take to open with it (.json, .csv, .vtt), e.g. the "
+                                                    "paragraph and sentence tiers of `earmark-cli longform --tiers`."),
+                                     QStringLiteral("FILE"));
     const QCommandLineOption voice(QStringLiteral("voice"),
                                    QStringLiteral("espeak-ng voice the texts are read in (default en-us); word evidence "
                                                   "is shown when the acoustic model covers it."),
                                    QStringLiteral("VOICE"));
-    parser.addOptions({voice, screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
+    parser.addOptions({voice, timings, screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
                        rate, rater});
     parser.process(app);
 
@@ -194,12 +198,14 @@ int main(int argc, char** argv) {
     earmark::gui::MainWindow window;
     if (parser.isSet(voice)) window.setVoice(parser.value(voice));
     if (range || selection) window.setInitialView(range, selection);
+    if (parser.isSet(timings)) window.setInitialTimings(parser.value(timings));
     int exitCode = 0;
     if (shooting) {
         const QString path = parser.value(screenshot);
         // Shoot once the take and (when asked for) the predicted mel have settled.
         // Word evidence always settles once the take's audio is in (shown, or not to be had).
-        auto pending = std::make_shared<int>(2 + parser.isSet(predictedMel) + parser.isSet(attention));
+        // So does the long-take review (immediately for a take that is not long).
+        auto pending = std::make_shared<int>(3 + parser.isSet(predictedMel) + parser.isSet(attention));
         auto allOk = std::make_shared<bool>(true);
         auto settle = [&, path, pending, allOk](bool ok, const QString& message) {
             if (*pending <= 0) return;  // already shot
@@ -226,6 +232,7 @@ int main(int argc, char** argv) {
         // No evidence (no text, a voice the model does not cover) is not a failure of the picture.
         QObject::connect(&window, &earmark::gui::MainWindow::evidenceSettled, &app,
                          [settle](bool, const QString&) { settle(true, {}); });
+        QObject::connect(&window, &earmark::gui::MainWindow::longformSettled, &app, settle);
         window.resize(windowSize);
     }
     window.show();

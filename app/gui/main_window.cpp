@@ -2,6 +2,7 @@
 
 #include "earmark/widgets/attention_lane.hpp"
 #include "earmark/widgets/audio_player.hpp"
+#include "earmark/widgets/drift_lane.hpp"
 #include "earmark/widgets/energy_lane.hpp"
 #include "earmark/widgets/help_overlay.hpp"
 #include "earmark/widgets/hover_readout.hpp"
@@ -87,6 +88,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     buildStatusBar();
     buildSessionPanels();
     buildEvidence();
+    buildLongform();
     buildActions();
     help_ = new HelpOverlay(menuBar(), this);
 
@@ -118,7 +120,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     setAcceptDrops(true);
     stack_->restoreLayout(q);
     for (Lane* lane : stack_->lanes())
-        if (isModelLane(lane->id())) stack_->setLaneVisible(lane->id(), false);
+        if (isModelLane(lane->id()) || lane->id() == QLatin1String("drift")) stack_->setLaneVisible(lane->id(), false);
     restoreGeometry(q.value("window/geometry").toByteArray());
     restoreState(q.value("window/state").toByteArray());
     if (!player_->available()) {
@@ -158,6 +160,9 @@ void MainWindow::buildLanes() {
     pitch_ = new PitchLane(view_);
     stack_->addLane(pitch_, LaneStack::Placement::Resizable, 2);
     stack_->addLane(new EnergyLane(view_), LaneStack::Placement::Resizable, 1);
+    // Shown for long takes only (main_window_longform.cpp).
+    driftLane_ = new DriftLane(view_);
+    stack_->addLane(driftLane_, LaneStack::Placement::Resizable, 3);
     for (const auto& [name, title] : {std::pair{QStringLiteral("words"), tr("Words")}, std::pair{QStringLiteral("phones"), tr("Phones")}}) {
         auto* lane = new TierLane(name, title, view_);
         tierLanes_.push_back(lane);
@@ -274,6 +279,7 @@ void MainWindow::selectTake(int row) {
     closeModelLanes();
     evidenceLoader_->cancel();
     clearWordEvidence({});
+    clearLongform();
     showTiers();
     showMarks();
     player_->setTake(nullptr);
@@ -315,6 +321,7 @@ void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
     player_->setTake(audio);
     if (session_ && currentTake_) tiers_ = session_->tiers(*currentTake_);
     tiers_.durationS = audio->duration();
+    if (!initialTimings_.isEmpty()) openTimings(std::exchange(initialTimings_, QString()));
     showTiers();
     showMarks();
     // A selection given on the command line that is a mark's span selects the mark.
@@ -330,6 +337,7 @@ void MainWindow::onAudio(quint64, TakeAudioPtr audio) {
     updateSessionActions();
     startModelMel();
     startWordEvidence();
+    startLongform();
 }
 
 void MainWindow::onTracks(quint64, TakeTracksPtr tracks) {
@@ -462,6 +470,7 @@ void MainWindow::closeEvent(QCloseEvent* event) {
     player_->stop();
     loader_->cancel();
     evidenceLoader_->cancel();
+    longformLoader_->cancel();
     QSettings q;
     stack_->saveLayout(q);
     q.setValue("window/geometry", saveGeometry());

@@ -9,6 +9,7 @@
 #include "earmark/store/take.hpp"
 #include "earmark/tiers/tier.hpp"
 #include "earmark/widgets/analysis_settings.hpp"
+#include "earmark/widgets/longform_loader.hpp"
 #include "earmark/widgets/model_attention.hpp"
 #include "earmark/widgets/model_mel.hpp"
 #include "earmark/widgets/take_data.hpp"
@@ -20,6 +21,7 @@
 #include <QTimer>
 
 #include <optional>
+#include <utility>
 #include <vector>
 
 class QAction;
@@ -41,6 +43,8 @@ class LaneStack;
 class ModelMelLane;
 class ModelLoader;
 class AttentionLane;
+class DriftLane;
+class LongformPanel;
 class MarkInspector;
 class MarkLane;
 class MarkList;
@@ -89,6 +93,15 @@ public:
     void setVoice(const QString& voice) { voice_ = voice; }
     widgets::WordEvidencePanel* wordPanel() const { return wordPanel_; }
     const widgets::WordEvidencePtr& wordEvidence() const { return evidence_; }
+    widgets::DriftLane* driftLane() const { return driftLane_; }
+    widgets::LongformPanel* longformPanel() const { return longformPanel_; }
+    const widgets::LongTakeReviewPtr& longTakeReview() const { return longform_; }
+    // Steps the cursor to the next (direction > 0) or previous sentence,
+    // paragraph or long-take finding, selecting it and showing it.
+    enum class LongformStep { Sentence, Paragraph, Finding };
+    void step(LongformStep what, int direction);
+    // Selects [start, end], puts the cursor at its start and scrolls it into view.
+    void jumpTo(double start, double end);
     // Reads a timings file as the current take's tiers (undoable).
     bool openTimings(const QString& path);
     // Applied once, when the next take's audio arrives (for --view, --select).
@@ -96,6 +109,8 @@ public:
         initialView_ = range;
         initialSelection_ = selection;
     }
+    // Opened as the tiers of the next take whose audio arrives (for --timings).
+    void setInitialTimings(const QString& path) { initialTimings_ = path; }
     widgets::LaneStack* laneStack() const { return stack_; }
     widgets::ViewState* viewState() const { return view_; }
     widgets::AudioPlayer* player() const { return player_; }
@@ -121,6 +136,8 @@ signals:
     void modelSettled(bool ok, const QString& message);
     // The current take's word evidence is shown (ok) or cannot be had (why).
     void evidenceSettled(bool ok, const QString& message);
+    // A long take's review is shown (ok), failed (why), or the take is not long (ok).
+    void longformSettled(bool ok, const QString& message);
 
 protected:
     void closeEvent(QCloseEvent* event) override;
@@ -195,6 +212,15 @@ private:
     void onWordEvidence(quint64 request, widgets::WordEvidencePtr evidence);
     void clearWordEvidence(const QString& why);
     std::vector<Suspect> evidenceSuspectsShown() const;
+    // Long takes (main_window_longform.cpp).
+    void buildLongform();
+    bool isLongTake() const;
+    void startLongform();
+    void clearLongform();
+    void onLongform(widgets::LongTakeReviewPtr review);
+    void showOutline();
+    // A progress bar and a Stop button in the status bar for a background job, both hidden.
+    std::pair<QProgressBar*, QToolButton*> addJobIndicator(const QString& format, const QString& stopTip);
     // A message in the status bar, cleared after `milliseconds` (0: kept).
     void notify(const QString& text, int milliseconds = 0);
 
@@ -255,6 +281,7 @@ private:
     widgets::TakeTracksPtr tracks_;
     std::optional<widgets::TimeRange> initialView_;
     std::optional<widgets::TimeRange> initialSelection_;
+    QString initialTimings_;
 
     widgets::WordEvidenceLoader* evidenceLoader_ = nullptr;
     widgets::WordEvidencePanel* wordPanel_ = nullptr;
@@ -262,6 +289,12 @@ private:
     QString voice_ = QStringLiteral("en-us");
     QProgressBar* evidenceProgress_ = nullptr;
     QToolButton* evidenceStop_ = nullptr;
+
+    widgets::DriftLane* driftLane_ = nullptr;
+    widgets::LongformLoader* longformLoader_ = nullptr;
+    widgets::LongformPanel* longformPanel_ = nullptr;
+    widgets::LongTakeReviewPtr longform_;  // of the current take
+    QProgressBar* longformProgress_ = nullptr;
 };
 
 }  // namespace earmark::gui

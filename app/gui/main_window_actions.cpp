@@ -128,6 +128,19 @@ void MainWindow::buildActions() {
     addAction(nav, tr("Select visible range"), QKeySequence(Qt::SHIFT | Qt::Key_A),
               [this] { view_->setSelection(view_->visibleRange()); });
     addAction(nav, tr("Clear selection"), QKeySequence(Qt::Key_Escape), [this] { view_->setSelection(std::nullopt); });
+    nav->addSeparator();
+    addAction(nav, tr("Next sentence"), QKeySequence(Qt::ALT | Qt::Key_Right), [this] { step(LongformStep::Sentence, 1); });
+    addAction(nav, tr("Previous sentence"), QKeySequence(Qt::ALT | Qt::Key_Left), [this] { step(LongformStep::Sentence, -1); });
+    addAction(nav, tr("Next paragraph"), QKeySequence(Qt::ALT | Qt::SHIFT | Qt::Key_Right),
+              [this] { step(LongformStep::Paragraph, 1); });
+    addAction(nav, tr("Previous paragraph"), QKeySequence(Qt::ALT | Qt::SHIFT | Qt::Key_Left),
+              [this] { step(LongformStep::Paragraph, -1); });
+    addAction(nav, tr("Next long-take finding"), QKeySequence(Qt::ALT | Qt::Key_Period), [this] { step(LongformStep::Finding, 1); });
+    addAction(nav, tr("Previous long-take finding"), QKeySequence(Qt::ALT | Qt::Key_Comma),
+              [this] { step(LongformStep::Finding, -1); });
+    addAction(nav, tr("Show the long-take panel"), QKeySequence(Qt::CTRL | Qt::SHIFT | Qt::Key_F), [this] {
+        if (auto* dock = findChild<QDockWidget*>("longformDock")) dock->setVisible(!dock->isVisible());
+    });
 
     QMenu* play = menuBar()->addMenu(tr("&Play"));
     playActions_.push_back(addAction(play, tr("Play from cursor / stop"), QKeySequence(Qt::Key_Space), [this] {
@@ -154,7 +167,8 @@ void MainWindow::buildActions() {
     int n = 1;
     for (Lane* lane : stack_->lanes()) {
         // The model lanes come and go with a predicted mel (File menu).
-        if (lane->id() == "ruler" || isModelLane(lane->id())) continue;
+        // The drift lane comes and goes with long takes.
+        if (lane->id() == "ruler" || isModelLane(lane->id()) || lane->id() == QLatin1String("drift")) continue;
         const QString id = lane->id();
         QAction* a = addToggle(lanes, tr("Show %1").arg(lane->title().toLower()),
                                QKeySequence(Qt::CTRL | static_cast<Qt::Key>(Qt::Key_0 + n++)), true,

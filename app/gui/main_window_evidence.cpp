@@ -17,6 +17,8 @@
 #include <QStatusBar>
 #include <QToolButton>
 
+#include <tuple>
+
 namespace earmark::gui {
 
 using namespace earmark::widgets;
@@ -25,17 +27,7 @@ void MainWindow::buildEvidence() {
     evidenceLoader_ = new WordEvidenceLoader(this);
     wordPanel_ = new WordEvidencePanel(this);
     addPanel(tr("Word"), "wordDock", wordPanel_, Qt::RightDockWidgetArea);
-    evidenceProgress_ = new QProgressBar(this);
-    evidenceProgress_->setRange(0, 100);
-    evidenceProgress_->setMaximumWidth(160);
-    evidenceProgress_->setFormat(tr("word evidence %p%"));
-    evidenceProgress_->hide();
-    statusBar()->addPermanentWidget(evidenceProgress_);
-    evidenceStop_ = new QToolButton(this);
-    evidenceStop_->setText(tr("Stop"));
-    evidenceStop_->setToolTip(tr("Stop gathering word evidence"));
-    evidenceStop_->hide();
-    statusBar()->addPermanentWidget(evidenceStop_);
+    std::tie(evidenceProgress_, evidenceStop_) = addJobIndicator(tr("word evidence %p%"), tr("Stop gathering word evidence"));
     connect(evidenceStop_, &QToolButton::clicked, this, [this] {
         evidenceLoader_->cancel();
         clearWordEvidence(tr("Word evidence stopped."));
@@ -72,6 +64,11 @@ void MainWindow::startWordEvidence() {
     if (!audio_ || text.isEmpty()) {
         clearWordEvidence(tr("Word evidence needs the take's text."));
         emit evidenceSettled(false, tr("no text"));
+        return;
+    }
+    if (isLongTake()) {  // an hour is not a line: the long-take review aligns its text instead
+        clearWordEvidence(tr("Word evidence is for single lines; this is a long take (see the long-take panel)."));
+        emit evidenceSettled(false, tr("long take"));
         return;
     }
     if (!modelCoversVoice(voice_.toStdString())) {

@@ -276,12 +276,7 @@ void MainWindow::goToMark(MarkId id, bool playIt) {
         if (row >= 0 && row != currentRow_) selectTake(row);
         return;
     }
-    view_->setSelection(TimeRange{m->startSeconds, m->endSeconds});
-    view_->setCursor(m->startSeconds);
-    if (!view_->visibleRange().contains(m->startSeconds) || !view_->visibleRange().contains(m->endSeconds)) {
-        const double pad = 0.5 * (m->endSeconds - m->startSeconds) + 0.2;
-        view_->setVisibleRange({m->startSeconds - pad, m->endSeconds + pad});
-    }
+    jumpTo(m->startSeconds, m->endSeconds);
     selectMark(id);
     if (playIt) play(static_cast<int>(PlayMode::Selection));
 }
@@ -293,6 +288,7 @@ void MainWindow::showTiers() {
         const Tier* t = tiers_.find(lane->tierName().toStdString());
         lane->setTier(t ? *t : Tier{lane->tierName().toStdString(), {}});
     }
+    showOutline();
     if (saveTimingsAction_) updateSessionActions();
 }
 
