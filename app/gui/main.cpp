@@ -23,6 +23,7 @@
 #include "earmark/widgets/compare_window.hpp"
 #include "earmark/widgets/rating_window.hpp"
 
+#include "earmark/widgets/quiet_terminal.hpp"
 #include "earmark/widgets/take_list.hpp"
 
 #include <QApplication>
@@ -45,6 +46,7 @@ int fail(const QString& message, int code) {
 }  // namespace
 
 int main(int argc, char** argv) {
+    earmark::widgets::keepTerminalClean();  // before QApplication: its start-up notices too
     QApplication app(argc, argv);
     QApplication::setOrganizationName(QStringLiteral("Earmark"));
     QApplication::setApplicationName(QStringLiteral("earmark"));

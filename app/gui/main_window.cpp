@@ -32,10 +32,12 @@
 #include <QDockWidget>
 #include <QFileDialog>
 #include <QFileInfo>
+#include <QGuiApplication>
 #include <QLabel>
 #include <QListWidget>
 #include <QMenuBar>
 #include <QProgressBar>
+#include <QScreen>
 #include <QSettings>
 #include <QStatusBar>
 #include <QStackedWidget>
@@ -51,7 +53,18 @@ using namespace earmark::widgets;
 
 namespace {
 constexpr int takeListWidth = 250;  // px
+
+// First start (no saved geometry): most of the screen, centred, so the lanes
+// are not squeezed into the layout's minimum size.
+void fitToScreen(QWidget& window) {
+    const QScreen* screen = window.screen() ? window.screen() : QGuiApplication::primaryScreen();
+    if (!screen) return;
+    const QRect area = screen->availableGeometry();
+    const QSize size(area.width() * 85 / 100, area.height() * 85 / 100);
+    window.resize(size);
+    window.move(area.center() - QPoint(size.width() / 2, size.height() / 2));
 }
+}  // namespace
 
 MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     setWindowTitle(tr("Earmark"));
@@ -121,7 +134,7 @@ MainWindow::MainWindow(QWidget* parent) : QMainWindow(parent) {
     stack_->restoreLayout(q);
     for (Lane* lane : stack_->lanes())
         if (isModelLane(lane->id()) || lane->id() == QLatin1String("drift")) stack_->setLaneVisible(lane->id(), false);
-    restoreGeometry(q.value("window/geometry").toByteArray());
+    if (!restoreGeometry(q.value("window/geometry").toByteArray())) fitToScreen(*this);
     restoreState(q.value("window/state").toByteArray());
     if (!player_->available()) {
         for (QAction* a : playActions_) {
