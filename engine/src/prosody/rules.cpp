@@ -107,6 +107,7 @@ std::vector<Section> layout(ScanRules& r) {
                                              {"min_low_share", &r.buzz.params.minLowShare},
                                              {"min_s", &r.buzz.params.minSeconds}})},
         {"dropout", with(switchFields(r.dropout), {{"min_depth_db", &r.dropout.params.minDepthDb},
+                                                   {"min_s", &r.dropout.params.minSeconds},
                                                    {"max_s", &r.dropout.params.maxSeconds},
                                                    {"edge_below_speech_db", &r.dropout.params.edgeBelowSpeechDb},
                                                    {"max_f0_step_st", &r.dropout.params.maxF0StepSt}})},

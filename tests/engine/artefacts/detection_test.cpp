@@ -132,10 +132,12 @@ TEST(ArtefactDetection, DropoutsInsideWords) {
         "dropout", dropouts, 0.0,
         [](const VoiceTake& t) { return test::plantingTimes(t, 0.01, 0.05, 15.0, true, 0.6, 20, 14); },
         [](Signal& s, double t, std::size_t, double) { return test::plantDropout(s, t, 0.04); });
-    // Below the bar (measured 60.8 % found, 8.9 false per 5 min: espeak-ng
-    // cuts into stop closures as abruptly as a drop-out): off by default.
+    // Measured 60.8 % found, under the 90 % bar (the voicing check misses
+    // drop-outs where YIN loses the voice next to the gap): off by default.
+    // No false event since gaps under 15 ms are left out (espeak-ng's 9–12 ms
+    // stop closures made 8.9 per 5 min).
     EXPECT_GE(tally.foundShare(), 0.55);
-    EXPECT_LE(tally.falsePerFiveMinutes(), 9.5);
+    EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
 }
 
 }  // namespace

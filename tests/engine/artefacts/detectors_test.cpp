@@ -79,6 +79,16 @@ TEST(ArtefactDetectors, DropoutInsideTheVowelIsFoundWithItsSpan) {
     EXPECT_GT(events[0].value, 100.0);  // digital silence: far below any threshold
 }
 
+// Gaps shorter than DropoutParams::minSeconds (15 ms) are left out: the
+// length of espeak-ng's shortest silent stop closures (dropouts.hpp).
+TEST(ArtefactDetectors, GapsShorterThanTheShortestDropoutAreLeftOut) {
+    auto t = steadyVoice();
+    test::plantDropout(t.signal, 0.7, 0.01);
+    test::measure(t);
+    EXPECT_TRUE(findDropouts(t.signal, t.pitch, t.speechLevelDb).empty());
+    EXPECT_EQ(findDropouts(t.signal, t.pitch, t.speechLevelDb, DropoutParams{.minSeconds = 0.004}).size(), 1u);
+}
+
 TEST(ArtefactDetectors, NoiseUnderTheVowelsEnvelopeIsBuzz) {
     auto t = steadyVoice();
     test::plantNoiseForHarmonics(t.signal, 0.6, 0.15, 7);
