@@ -162,12 +162,31 @@ Signal speechLike(double seconds, double rate, std::uint32_t seed) {
         segs.push_back(s);
     }
     SyntheticVoice v = synthesiseVoice(segs, rate, seed);
+    auto& x = v.signal.samples;
     // Syllable-rate envelope (≈4 Hz) so energy and loudness vary like speech.
-    for (std::size_t i = 0; i < v.signal.samples.size(); ++i) {
+    for (std::size_t i = 0; i < x.size(); ++i) {
         const double t = static_cast<double>(i) / rate;
-        v.signal.samples[i] *= static_cast<float>(0.6 + 0.4 * std::sin(kTwoPi * 4.0 * t));
+        x[i] *= static_cast<float>(0.6 + 0.4 * std::sin(kTwoPi * 4.0 * t));
     }
-    v.signal.samples.resize(static_cast<std::size_t>(std::llround(seconds * rate)), 0.0f);
+    x.resize(static_cast<std::size_t>(std::llround(seconds * rate)), 0.0f);
+    // Segments change level or kind from one sample to the next (a step in
+    // the waveform, which the click detector rightly finds): fade out and in
+    // over 5 ms (raised cosine) at every join and at the end, so the
+    // waveform is continuous there.
+    const auto ramp = static_cast<std::size_t>(std::llround(0.005 * rate));
+    auto fade = [&](std::size_t join) {  // zero at `join`, full gain `ramp` samples away on both sides
+        for (std::size_t k = 0; k <= ramp; ++k) {
+            const auto g = static_cast<float>(0.5 - 0.5 * std::cos(std::numbers::pi * static_cast<double>(k) / static_cast<double>(ramp)));
+            if (join + k < x.size()) x[join + k] *= g;
+            if (k > 0 && join >= k && join - k < x.size()) x[join - k] *= g;
+        }
+    };
+    std::size_t join = 0;
+    for (std::size_t k = 0; k + 1 < segs.size(); ++k) {
+        join += static_cast<std::size_t>(std::llround(segs[k].seconds * rate));
+        if (join < x.size()) fade(join);
+    }
+    fade(x.size());
     return v.signal;
 }
 

@@ -49,7 +49,8 @@ SyntheticVoice synthesiseVoice(const std::vector<VoiceSegment>& segments, double
 
 // A speech-like signal of any length for benchmarks and loudness checks:
 // alternating voiced syllables (F0 drifting 90–220 Hz, 4 syllables/s
-// amplitude envelope), short noise bursts and pauses.
+// amplitude envelope), short noise bursts and pauses; every join between
+// segments (and the end) fades through zero over 5 ms, so there is no step.
 Signal speechLike(double seconds, double sampleRate, std::uint32_t seed = 11);
 
 }  // namespace earmark::test
