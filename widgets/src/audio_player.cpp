@@ -95,12 +95,8 @@ bool AudioPlayer::play(PlayMode mode) {
         emit message(tr("The audio device cannot play %1 Hz mono.").arg(format.sampleRate()));
         return false;
     }
-    const PlaySegment seg = *transport_.segment();
-    PlaybackParams params;
-    params.stretch.rate = transport_.segmentRate();
-    params.crossfadeSeconds = transport_.loopCrossfade();
     try {
-        source_ = std::make_unique<SegmentSource>(take_, PlaybackSpan{seg.start, seg.end, seg.loop}, params);
+        source_ = std::make_unique<SegmentSource>(take_, transport_.playbackSpan(), transport_.playbackParams());
     } catch (const Error& e) {
         transport_.stop();
         emit message(tr("Cannot play this span: %1").arg(QString::fromStdString(e.what())));

@@ -62,20 +62,16 @@ bool Transport::start(PlayMode mode, const PlayContext& context) {
 
 void Transport::stop() { segment_.reset(); }
 
-std::optional<double> Transport::advance(double elapsed) {
-    if (!segment_) return std::nullopt;
-    const PlaySegment s = *segment_;
-    elapsed = std::max(elapsed, 0.0);
-    const double heard = s.length() / segmentRate_;  // output seconds of one pass
-    if (s.loop) {
-        const double pass = heard - crossfade_ > 0.001 ? heard - crossfade_ : heard;
-        return s.start + std::fmod(elapsed, pass) * segmentRate_;
-    }
-    if (elapsed >= heard) {
-        segment_.reset();
-        return std::nullopt;
-    }
-    return s.start + elapsed * segmentRate_;
+PlaybackSpan Transport::playbackSpan() const {
+    const PlaySegment s = segment_.value();
+    return {s.start, s.end, s.loop};
+}
+
+PlaybackParams Transport::playbackParams() const {
+    PlaybackParams p;
+    p.stretch.rate = segmentRate_;
+    p.crossfadeSeconds = crossfade_;
+    return p;
 }
 
 }  // namespace earmark::widgets

@@ -1,10 +1,13 @@
-// Playback logic without an audio device: what span a play command plays,
-// where the playhead is after some time, how loops wrap, which sample to feed
-// next. The device side (AudioPlayer) only moves bytes and reads a clock.
+// Playback logic without an audio device: what span a play command plays, at
+// what rate, looped or not. What is heard and where the playhead is come from
+// one place, the PlaybackStream built from playbackSpan() and playbackParams()
+// (earmark/playback/playback_stream.hpp: its takeSecondsAt maps output samples
+// to take time). The device side (AudioPlayer) only moves bytes and reads a clock.
 //
 // Plain C++, not thread-safe (the GUI thread owns it).
 #pragma once
 
+#include "earmark/playback/playback_stream.hpp"
 #include "earmark/widgets/time_mapping.hpp"
 
 #include <optional>
@@ -68,10 +71,10 @@ public:
     void setLoopCrossfade(double seconds) { crossfade_ = seconds > 0 ? seconds : 0.0; }
     double loopCrossfade() const { return crossfade_; }
 
-    // The playhead (source seconds) after `elapsedSeconds` of output at the
-    // segment's rate: start + elapsed · rate. A one-shot segment stops at its
-    // end (returns empty and the transport is stopped); a loop wraps.
-    std::optional<double> advance(double elapsedSeconds);
+    // The running segment as the stream plays it: span, and the rate and
+    // loop cross-fade in force at start(). Requires playing().
+    PlaybackSpan playbackSpan() const;
+    PlaybackParams playbackParams() const;
 
     // The rate the running segment started with.
     double segmentRate() const { return segmentRate_; }
