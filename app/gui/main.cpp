@@ -1,5 +1,5 @@
 // earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--voice VOICE] [--screenshot PATH [--size WxH]]
-//         [--view START:END] [--select START:END] [--timings FILE] [--predicted-mel FILE.npy]
+//         [--view START:END] [--select START:END] [--timings FILE] [--speed RATE] [--predicted-mel FILE.npy]
 //         [--attention FILE.npy --tokens FILE]
 // earmark SESSION.earmark --rate TEST [--rater NAME] [--screenshot PATH [--size WxH]]
 // earmark --compare A B [--text "…" | --words-a FILE --words-b FILE] [--screenshot PATH [--size WxH]]
@@ -12,7 +12,8 @@
 //
 // A `.earmark` argument opens that review session (its queue, tiers, marks
 // and suspects); --take shows one of its takes first (id, line id or file name),
-// and --select on the span of one of its marks selects that mark.
+// and --select on the span of one of its marks selects that mark. --speed
+// sets the playback speed (0.25–2, pitch kept) the window starts with.
 //
 // With --screenshot the window loads the first take, waits for its analysis,
 // writes the window to PATH as PNG and exits: 0 on success, 1 when the take
@@ -20,6 +21,7 @@
 #include "main_window.hpp"
 
 #include "earmark/store/session_address.hpp"
+#include "earmark/widgets/audio_player.hpp"
 #include "earmark/widgets/compare_window.hpp"
 #include "earmark/widgets/rating_window.hpp"
 
@@ -72,6 +74,9 @@ int main(int argc, char** argv) {
                                   QStringLiteral("START:END"));
     const QCommandLineOption select(QStringLiteral("select"), QStringLiteral("Selection in seconds, e.g. 1.2:1.6."),
                                     QStringLiteral("START:END"));
+    const QCommandLineOption speed(QStringLiteral("speed"),
+                                   QStringLiteral("Playback speed to start with, 0.25 to 2 (1 = as recorded; the pitch is kept)."),
+                                   QStringLiteral("RATE"));
     const QCommandLineOption predictedMel(QStringLiteral("predicted-mel"),
                                           QStringLiteral("A model's predicted mel spectrogram (.npy) of the take, shown with its difference from the take's own mel."),
                                           QStringLiteral("FILE.npy"));
@@ -102,7 +107,7 @@ int main(int argc, char** argv) {
                                    QStringLiteral("espeak-ng voice the texts are read in (default en-us); word evidence "
                                                   "is shown when the acoustic model covers it."),
                                    QStringLiteral("VOICE"));
-    parser.addOptions({voice, timings, screenshot, size, view, select, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
+    parser.addOptions({voice, timings, screenshot, size, view, select, speed, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
                        rate, rater});
     parser.process(app);
 
@@ -125,6 +130,13 @@ int main(int argc, char** argv) {
         return fail(QStringLiteral("--view wants START:END in seconds with END > START >= 0"), 2);
     if (parser.isSet(select) && !(selection = parseSpan(select)))
         return fail(QStringLiteral("--select wants START:END in seconds with END > START >= 0"), 2);
+
+    double startSpeed = 1.0;
+    if (parser.isSet(speed)) {
+        bool ok = false;
+        startSpeed = parser.value(speed).toDouble(&ok);
+        if (!ok || !(startSpeed >= 0.25 && startSpeed <= 2.0)) return fail(QStringLiteral("--speed wants a number from 0.25 to 2"), 2);
+    }
 
     if (parser.isSet(attention) != parser.isSet(tokens))
         return fail(QStringLiteral("--attention and --tokens go together"), 2);
@@ -201,6 +213,7 @@ int main(int argc, char** argv) {
     if (parser.isSet(voice)) window.setVoice(parser.value(voice));
     if (range || selection) window.setInitialView(range, selection);
     if (parser.isSet(timings)) window.setInitialTimings(parser.value(timings));
+    window.player()->setRate(startSpeed);
     int exitCode = 0;
     if (shooting) {
         const QString path = parser.value(screenshot);
