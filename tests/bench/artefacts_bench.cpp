@@ -5,18 +5,26 @@
 // take's YIN track (the scan computes it anyway); WSOLA at 0.25× renders its
 // output ≥ 5× faster than it plays. Each counter `x_realtime` is seconds of
 // audio (input for the detectors, output for the stretch) per CPU second.
-// The reference measured in the same run is the engine's YIN on the same
-// audio (compare the x_realtime counters).
+// References measured in the same run: the engine's YIN on the same audio
+// (for the detectors) and a plain copy of the take in the player's blocks
+// (for playback); compare the x_realtime counters.
+//
+// "stream 0.25x loop" is what the player runs: PlaybackStream over a 15 s
+// span looping at 0.25x, read in blocks of 512 frames as the audio device
+// pulls them; its x_realtime is the headroom (≥ 5 wanted).
 #include "earmark/artefacts/buzz.hpp"
 #include "earmark/artefacts/clicks.hpp"
 #include "earmark/artefacts/dropouts.hpp"
 #include "earmark/artefacts/noise_bursts.hpp"
 #include "earmark/pitch/yin.hpp"
+#include "earmark/playback/playback_stream.hpp"
 #include "earmark/playback/time_stretch.hpp"
 #include "support/test_signals.hpp"
 
 #include <benchmark/benchmark.h>
 
+#include <algorithm>
+#include <vector>
 
 namespace {
 
@@ -66,6 +74,35 @@ void stretchQuarter(benchmark::State& s) {
     run(s, "WSOLA 0.25x (output seconds)", 60.0, [] { return earmark::timeStretch(input, {.rate = 0.25}).size(); });
 }
 
+constexpr std::size_t kBlock = 512;  // frames per audio-device pull
+
+// The player's path: a looping span at 0.25x read block by block; 60 s of output.
+void streamQuarterLoop(benchmark::State& s) {
+    run(s, "stream 0.25x loop (output seconds)", 60.0, [] {
+        earmark::PlaybackParams params;
+        params.stretch.rate = 0.25;
+        earmark::PlaybackStream stream(minute(), {.startSeconds = 20.0, .endSeconds = 35.0, .loop = true}, params);
+        std::vector<float> block(kBlock);
+        std::size_t total = 0;
+        while (total < 60 * 22050) total += stream.read(block.data(), kBlock);
+        return total + static_cast<std::size_t>(block[0] != 0.0f);
+    });
+}
+// Reference: copying 60 s of the take out in the same blocks.
+void copyBlocks(benchmark::State& s) {
+    run(s, "copy in blocks (reference)", 60.0, [] {
+        const auto& x = minute().samples;
+        std::vector<float> block(kBlock);
+        float sum = 0.0f;
+        for (std::size_t i = 0; i + kBlock <= x.size(); i += kBlock) {
+            std::copy_n(x.begin() + static_cast<std::ptrdiff_t>(i), kBlock, block.begin());
+            benchmark::DoNotOptimize(block.data());
+            sum += block[0];
+        }
+        return sum;
+    });
+}
+
 BENCHMARK(yin)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
 BENCHMARK(clicks)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
 BENCHMARK(noiseBursts)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
@@ -73,6 +110,8 @@ BENCHMARK(buzz)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
 BENCHMARK(dropouts)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
 BENCHMARK(allDetectors)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
 BENCHMARK(stretchQuarter)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
+BENCHMARK(streamQuarterLoop)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
+BENCHMARK(copyBlocks)->Unit(benchmark::kMillisecond)->MeasureProcessCPUTime();
 
 }  // namespace
 
