@@ -9,6 +9,7 @@
 #include <chrono>
 #include <condition_variable>
 #include <mutex>
+#include <optional>
 #include <thread>
 
 namespace earmark {
@@ -17,20 +18,23 @@ namespace {
 bool blank(const std::string& s) { return s.find_first_not_of(" \t\r\n") == std::string::npos; }
 
 // Word evidence and the coverage suspects; a text that cannot be aligned is noted in the status.
-void checkWords(const ScanItem& item, const Signal& signal, const ScanSettings& settings, ScanRow& row,
-                Progress progress) {
-    if (!settings.rules.wordEvidenceEnabled() || blank(item.text)) return;
+// Returns the evidence (its tiers give the word times of a take without timings), or nothing.
+std::optional<WordEvidenceResult> checkWords(const ScanItem& item, const Signal& signal,
+                                             const ScanSettings& settings, ScanRow& row, Progress progress) {
+    if (!settings.rules.wordEvidenceEnabled() || blank(item.text)) return std::nullopt;
     WordEvidenceParams params;
     params.voice = item.voice.empty() ? settings.voice : item.voice;
-    if (!modelCoversVoice(params.voice)) return;
+    if (!modelCoversVoice(params.voice)) return std::nullopt;
     params.minExtraSeconds = settings.rules.extraSpeech.minSeconds;
+    std::optional<WordEvidenceResult> evidence;
     try {
-        row.words = summariseWords(gatherWordEvidence(signal, item.text, params, progress));
+        evidence = gatherWordEvidence(signal, item.text, params, progress);
     } catch (const InputError& e) {
         row.status += "; words not checked: " + e.subject() + " " + e.problem();
-        return;
+        return std::nullopt;
     }
-    for (auto& s : coverageSuspects(row.words, settings.rules)) row.suspects.push_back(std::move(s));
+    row.words = summariseWords(*evidence);
+    return evidence;
 }
 
 }  // namespace
@@ -48,6 +52,9 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
     row.file = item.audioPath;
     try {
         const TakeAnalysis analysis = analyseFile(item.audioPath, settings.analysis, progress);
+        // Word evidence first: a take with text but no timings gets its per-word measures from the
+        // model's word tier.
+        const auto evidence = checkWords(item, analysis.signal, settings, row, progress);
         Transcript transcript;
         transcript.text = item.text;
         if (!item.timingsPath.empty()) {
@@ -55,14 +62,20 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
                 TimingsReadOptions options;
                 options.takeDurationS = analysis.signal.durationSeconds();
                 transcript = transcriptFrom(loadTimings(item.timingsPath, options).tiers, item.text);
+                if (transcript.hasWords()) row.wordTimesFrom = "timings";
             } catch (const Error& e) {
-                row.status = std::string("ok; timings ignored: ") + e.what();
+                row.status = std::string("ok; timings ignored: ") + e.what() + row.status.substr(2);  // after "ok"
             }
+        }
+        if (!transcript.hasWords() && evidence) {
+            transcript = transcriptFrom(evidence->tiers, item.text);
+            if (transcript.hasWords()) row.wordTimesFrom = evidence->method;
         }
         const auto context =
             ProsodyContext::fromAnalysis(analysis, std::move(transcript), settings.rules.prosodyParams());
         row.measures = measureTake(context, measureLevels(analysis));
         row.suspects = findSuspects(context, *row.measures, settings.rules);
+        row.wordProsody = measureWords(context);
         if (analysis.signal.durationSeconds() >= settings.rules.longform.scanMinTakeSeconds) {
             try {
                 row.findings = analyseLongform(analysis.signal, {}, settings.rules.longform).findings;
@@ -72,7 +85,7 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
         }
         for (auto& s : findArtefactSuspects(analysis.signal, context, settings.rules, progress))
             row.suspects.push_back(std::move(s));
-        checkWords(item, analysis.signal, settings, row, progress);
+        for (auto& s : coverageSuspects(row.words, settings.rules)) row.suspects.push_back(std::move(s));
     } catch (const Cancelled&) {
         throw;
     } catch (const std::bad_alloc&) {
@@ -83,6 +96,8 @@ ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress pr
         row.status = std::string("error: ") + e.what();
         row.measures.reset();
         row.suspects.clear();
+        row.wordProsody.clear();
+        row.wordTimesFrom.clear();
         return row;
     }
     row.takeScore = totalScore(row.suspects, settings.rules);

@@ -8,6 +8,7 @@
 #include "earmark/analysis/take_analysis.hpp"
 #include "earmark/longform/findings.hpp"
 #include "earmark/prosody/suspects.hpp"
+#include "earmark/prosody/word_measures.hpp"
 #include "earmark/scan/scan_input.hpp"
 #include "earmark/scan/word_checks.hpp"
 
@@ -29,6 +30,11 @@ struct ScanRow {
     std::vector<Finding> findings;         // long-form findings, for takes of at least
                                            // rules.longform.scanMinTakeSeconds (not scored)
     TakeWords words;                // word evidence, for takes with text in a voice the model covers
+    // Per-word prosody of the word tier the measures used, and where its times came from:
+    // "timings" (the take's timings file), "model" (the word evidence's word tier) or "" (no word tier).
+    // Kept in memory only (not in the CSV/JSON report).
+    std::vector<WordMeasures> wordProsody;
+    std::string wordTimesFrom;
     double takeScore = 0.0;         // score of the per-take suspects
     double score = 0.0;             // takeScore + set-level suspects (applySetRules)
 };
@@ -51,7 +57,8 @@ struct ScanSettings {
 // voice (its own, else settings.voice) the acoustic model covers gets word
 // evidence and the coverage suspects (word_checks.hpp) when any word rule is
 // on; text that cannot be aligned is noted in the status ("ok; words not
-// checked: …"). Throws Cancelled when `progress` asks to stop.
+// checked: …"). The per-word measures and suspects use the timings file's
+// word tier, else the word evidence's (the model's) word tier. Throws Cancelled when `progress` asks to stop.
 ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress progress = {});
 
 struct ScanProgress {
