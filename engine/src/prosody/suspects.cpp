@@ -356,17 +356,20 @@ std::vector<TakeSuspect> findArtefactSuspects(const Signal& signal, const Prosod
     std::vector<TakeSuspect> out;
     const double level = c.activity().speechLevelDb;
     const auto& words = c.transcript().words;
-    // The strongest event of one detector as a suspect, with the word it falls in.
-    auto add = [&](SuspectKind kind, const std::vector<ArtefactEvent>& events, double threshold, const char* unit,
+    // Every event of one detector as a suspect of its own, in time order (a take
+    // with three clicks gets three, each with its time and the word it falls in).
+    auto add = [&](SuspectKind kind, std::vector<ArtefactEvent> events, double threshold, const char* unit,
                    const std::function<std::string(const ArtefactEvent&)>& what) {
-        if (events.empty()) return;
-        const auto worst = std::max_element(events.begin(), events.end(),
-                                            [](const auto& a, const auto& b) { return a.value < b.value; });
-        std::string reason = what(*worst) + " at " + timeSpan(worst->startS, worst->endS);
-        if (const long w = wordAt(words, 0.5 * (worst->startS + worst->endS)); w >= 0)
-            reason += " in " + quoteWords(tokensOf(c), static_cast<std::size_t>(w), static_cast<std::size_t>(w));
-        if (events.size() > 1) reason += ", " + std::to_string(events.size()) + " in the take";
-        out.push_back(make(kind, worst->value, threshold, unit, worst->startS, worst->endS, reason));
+        std::sort(events.begin(), events.end(), [](const auto& a, const auto& b) { return a.startS < b.startS; });
+        for (std::size_t k = 0; k < events.size(); ++k) {
+            const ArtefactEvent& e = events[k];
+            std::string reason = what(e) + " at " + timeSpan(e.startS, e.endS);
+            if (const long w = wordAt(words, 0.5 * (e.startS + e.endS)); w >= 0)
+                reason += " in " + quoteWords(tokensOf(c), static_cast<std::size_t>(w), static_cast<std::size_t>(w));
+            if (events.size() > 1)
+                reason += " (" + std::to_string(k + 1) + " of " + std::to_string(events.size()) + " in the take)";
+            out.push_back(make(kind, e.value, threshold, unit, e.startS, e.endS, reason));
+        }
     };
     if (rules.click.enabled) {
         const auto& p = rules.click.params;

@@ -1,6 +1,7 @@
 // Suspects: automatic hints that a take may be defective, each with the
 // measured value, the threshold it crossed, a time span and a reason in words.
-// One suspect per kind per take: the worst instance (e.g. the flattest phrase).
+// One suspect per kind per take, the worst instance (e.g. the flattest
+// phrase) — except the artefacts, where every event is a suspect.
 //
 // Thread-safety: pure functions.
 #pragma once
@@ -48,7 +49,8 @@ std::vector<TakeSuspect> findSuspects(const ProsodyContext& context, const TakeM
 
 // The artefact rules (click, noise-burst, buzz, dropout) over the take's
 // samples (earmark/artefacts/), with the context's F0 track and speech
-// level; one suspect per kind, the strongest (for buzz: the longest).
+// level; one suspect per event, each kind in time order (a take with three
+// clicks gets three click suspects, each adding its score).
 // Throws ParamError for invalid rules, Cancelled via `progress`.
 std::vector<TakeSuspect> findArtefactSuspects(const Signal& signal, const ProsodyContext& context,
                                               const ScanRules& rules, Progress progress = {});
