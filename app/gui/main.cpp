@@ -1,5 +1,5 @@
 // earmark [AUDIO… | TAKES.csv | SESSION.earmark] [--take KEY] [--voice VOICE] [--screenshot PATH [--size WxH]]
-//         [--view START:END] [--select START:END] [--timings FILE] [--speed RATE] [--predicted-mel FILE.npy]
+//         [--view START:END] [--select START:END] [--timings FILE] [--speed RATE] [--loop] [--predicted-mel FILE.npy]
 //         [--attention FILE.npy --tokens FILE]
 // earmark SESSION.earmark --rate TEST [--rater NAME] [--screenshot PATH [--size WxH]]
 // earmark --compare A B [--text "…" | --words-a FILE --words-b FILE] [--screenshot PATH [--size WxH]]
@@ -13,7 +13,8 @@
 // A `.earmark` argument opens that review session (its queue, tiers, marks
 // and suspects); --take shows one of its takes first (id, line id or file name),
 // and --select on the span of one of its marks selects that mark. --speed
-// sets the playback speed (0.25–2, pitch kept) the window starts with.
+// sets the playback speed (0.25–2, pitch kept) the window starts with, and
+// --loop starts it with the selection repeating.
 //
 // With --screenshot the window loads the first take, waits for its analysis,
 // writes the window to PATH as PNG and exits: 0 on success, 1 when the take
@@ -77,6 +78,7 @@ int main(int argc, char** argv) {
     const QCommandLineOption speed(QStringLiteral("speed"),
                                    QStringLiteral("Playback speed to start with, 0.25 to 2 (1 = as recorded; the pitch is kept)."),
                                    QStringLiteral("RATE"));
+    const QCommandLineOption loop(QStringLiteral("loop"), QStringLiteral("Start with the loop on (playing the selection repeats it)."));
     const QCommandLineOption predictedMel(QStringLiteral("predicted-mel"),
                                           QStringLiteral("A model's predicted mel spectrogram (.npy) of the take, shown with its difference from the take's own mel."),
                                           QStringLiteral("FILE.npy"));
@@ -107,7 +109,7 @@ int main(int argc, char** argv) {
                                    QStringLiteral("espeak-ng voice the texts are read in (default en-us); word evidence "
                                                   "is shown when the acoustic model covers it."),
                                    QStringLiteral("VOICE"));
-    parser.addOptions({voice, timings, screenshot, size, view, select, speed, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
+    parser.addOptions({voice, timings, screenshot, size, view, select, speed, loop, takeOption, predictedMel, attention, tokens, compare, text, wordsA, wordsB,
                        rate, rater});
     parser.process(app);
 
@@ -214,6 +216,7 @@ int main(int argc, char** argv) {
     if (range || selection) window.setInitialView(range, selection);
     if (parser.isSet(timings)) window.setInitialTimings(parser.value(timings));
     window.player()->setRate(startSpeed);
+    if (parser.isSet(loop)) window.player()->setLooping(true);
     int exitCode = 0;
     if (shooting) {
         const QString path = parser.value(screenshot);
