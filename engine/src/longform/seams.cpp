@@ -10,15 +10,28 @@
 #include <cmath>
 #include <limits>
 #include <optional>
+#include <utility>
 
 namespace earmark {
 namespace {
 
 constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 constexpr double kMinSideSpeechSeconds = 3.0;  // least speech on each side for level and envelope
+// A click in a pause reads as a burst of "speech" this short that splits the
+// pause; the halves are joined again so the click lies inside one pause.
+constexpr double kClickSpeechSeconds = 0.05;
 
-std::optional<Pause> pauseHolding(const SpeechActivity& speech, double t) {
-    for (const Pause& p : speech.pauses)
+std::vector<Pause> pausesAcrossClicks(const std::vector<Pause>& pauses) {
+    std::vector<Pause> out;
+    for (const Pause& p : pauses) {
+        if (!out.empty() && p.startS - out.back().endS < kClickSpeechSeconds) out.back().endS = p.endS;
+        else out.push_back(p);
+    }
+    return out;
+}
+
+std::optional<Pause> pauseHolding(const std::vector<Pause>& pauses, double t) {
+    for (const Pause& p : pauses)
         if (p.startS <= t && t <= p.endS) return p;
     return std::nullopt;
 }
@@ -104,6 +117,7 @@ std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks&
                                        const std::vector<double>& knownJoins, const LongformRules::Seam& rules,
                                        const std::string& origin) {
     checkJoins(knownJoins, tr.durationS, origin);
+    const std::vector<Pause> pauses = pausesAcrossClicks(tr.speech.pauses);
     std::vector<JoinMeasures> joins;
     for (double t : knownJoins) {
         JoinMeasures j;
@@ -112,7 +126,7 @@ std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks&
         joins.push_back(j);
     }
     if (knownJoins.empty())
-        for (const Pause& p : tr.speech.pauses) {
+        for (const Pause& p : pauses) {
             JoinMeasures j;
             j.timeS = 0.5 * (p.startS + p.endS);
             joins.push_back(j);
@@ -123,7 +137,7 @@ std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks&
     const double edge = 0.03;
     for (JoinMeasures& j : joins) {
         const double t = j.timeS;
-        const auto pause = pauseHolding(tr.speech, t);
+        const auto pause = pauseHolding(pauses, t);
         j.pauseStartS = pause ? pause->startS : t;
         j.pauseEndS = pause ? pause->endS : t;
         const std::size_t minSpeechFrames = static_cast<std::size_t>(std::ceil(kMinSideSpeechSeconds / tr.hopSeconds));
@@ -136,8 +150,22 @@ std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks&
             const auto right = medianDb(tr, t + 0.01, pause->endS - edge, 5);
             if (left && right) j.roomToneStepDb = *right - *left;
         }
-        if (pause) measureClick(take, pause->startS, pause->endS, j);
-        else measureClick(take, t - 0.05, t + 0.05, j);
+        if (pause) {
+            // The pause, and the click-long edges either side: a click near
+            // the next speech joins that speech and shortens the pause.
+            measureClick(take, pause->startS, pause->endS, j);
+            for (const auto [a, b] : {std::pair{pause->startS - kClickSpeechSeconds, pause->startS},
+                                      std::pair{pause->endS, pause->endS + kClickSpeechSeconds}}) {
+                JoinMeasures edge = j;
+                measureClick(take, a, b, edge);
+                if (edge.clickDb > j.clickDb) {
+                    j.clickDb = edge.clickDb;
+                    j.clickTimeS = edge.clickTimeS;
+                }
+            }
+        } else {
+            measureClick(take, t - 0.05, t + 0.05, j);
+        }
         j.envelopeJump = symmetricKl(voicedModel(tr, t - ctx, t), voicedModel(tr, t, t + ctx));
     }
     // As a ratio to the median join, so the measure does not depend on the voice.

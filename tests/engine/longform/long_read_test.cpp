@@ -88,6 +88,25 @@ TEST(LongRead, ClickAtAJoinIsASeam) {
     EXPECT_NEAR(seams[0].startS, join, 0.01);
 }
 
+// A click off the middle of a pause reads as a short burst of speech. 0.15 s
+// off, the silence after it is too short for a pause, so the click joins the
+// next speech and the pause found ends before it; 0.07 s off, it lies inside
+// the pause found. Both are measured, with or without the known joins.
+TEST(LongRead, ClickInsideAPauseIsASeam) {
+    for (const double offset : {0.07, 0.15}) {
+        LongReadPlan plan;
+        const double click = joinAt(40) + offset;
+        plan.clicksS = {click};
+        const LongRead read = makeLongRead(plan);
+        for (const auto& joins : {std::vector<double>{}, read.joins}) {
+            const auto all = findingsOf(read, joins);
+            const auto seams = ofKind(all, FindingKind::Seam, "click_db");
+            ASSERT_EQ(seams.size(), 1u) << "offset " << offset << "\n" << describe(all);
+            EXPECT_NEAR(seams[0].startS, click, 0.01);
+        }
+    }
+}
+
 TEST(LongRead, StretchInAnotherVoiceIsATimbreShift) {
     LongReadPlan plan;
     plan.speech = [](int i) {
