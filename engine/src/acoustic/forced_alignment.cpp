@@ -144,7 +144,9 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
     const Graph g = buildGraph(model, words, params);
     const std::size_t nUnits = g.units.size();
     const std::size_t ciPerFrame = static_cast<std::size_t>(model.basePhoneCount()) * S;
-    contextFree.assign(T * ciPerFrame, 0.0f);
+    if (!params.contextFreeGiven) contextFree.assign(T * ciPerFrame, 0.0f);
+    else if (contextFree.size() != T * ciPerFrame)
+        throw ParamError("ForcedAlignmentParams.contextFreeGiven", "the given context-free scores do not match the features");
 
     std::vector<float> score(nUnits * S, kNone);
     std::vector<int> hist(nUnits * S, -1);
@@ -203,9 +205,10 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
         std::fill(nullScore.begin(), nullScore.end(), kNone);
         float best = kNone;
         float* ci = contextFree.data() + t * ciPerFrame;
-        for (int p = 0; p < model.basePhoneCount(); ++p)
-            for (int j = 0; j < S; ++j)
-                ci[static_cast<std::size_t>(p * S + j)] = scorer.score(model.states(p)[static_cast<std::size_t>(j)]);
+        if (!params.contextFreeGiven)
+            for (int p = 0; p < model.basePhoneCount(); ++p)
+                for (int j = 0; j < S; ++j)
+                    ci[static_cast<std::size_t>(p * S + j)] = scorer.score(model.states(p)[static_cast<std::size_t>(j)]);
         float garbage = kNone;
         for (std::size_t k = 0; k < ciPerFrame; ++k) garbage = std::max(garbage, ci[k]);
         garbage -= static_cast<float>(params.garbageFramePenalty);

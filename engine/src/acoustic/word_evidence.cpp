@@ -124,6 +124,7 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
     plain.coverage = false;
     const ForcedAlignment first = forceAlign(*model, features, script, contextFree, plain, progress.sub(0.1, 0.45));
     ForcedAlignmentParams search = params.search;
+    search.contextFreeGiven = true;  // pass 1 filled contextFree from the same features
     const double mismatch = typicalMismatch(*model, first, contextFree);
     search.garbageFramePenalty += mismatch;
     // Score differences between competing paths grow with the mismatch: the

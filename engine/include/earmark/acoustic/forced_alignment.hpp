@@ -37,6 +37,9 @@ struct ForcedAlignmentParams {
     double earlyEndPenalty = 28.0;     // nats for leaving the script before its end
     double silencePenalty = 0.0;       // nats for a pause between words
     double beam = 300.0;               // nats below the best token that survive
+    // true: `contextFree` already holds contextFreeScores(model, features) of
+    // the same features (from an earlier pass); they are reused, not recomputed.
+    bool contextFreeGiven = false;
     // Throws ParamError("ForcedAlignmentParams.<field>") for negative values or a beam <= 0.
     void validate() const;
 };
@@ -63,7 +66,8 @@ struct ForcedAlignment {
 // Aligns `words` (at least one) to `features`. Fills `contextFree` with
 // contextFreeScores(model, features) on the way (the garbage unit needs
 // them every frame, and pronunciation scores reuse them), so each frame's
-// Gaussians are evaluated once.
+// Gaussians are evaluated once; with params.contextFreeGiven it reads them
+// instead (ParamError when their size does not match the features).
 ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& features,
                            const std::vector<ScriptWord>& words, std::vector<float>& contextFree,
                            const ForcedAlignmentParams& params = {}, Progress progress = {});
