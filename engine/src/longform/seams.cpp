@@ -156,11 +156,11 @@ std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks&
             measureClick(take, pause->startS, pause->endS, j);
             for (const auto [a, b] : {std::pair{pause->startS - kClickSpeechSeconds, pause->startS},
                                       std::pair{pause->endS, pause->endS + kClickSpeechSeconds}}) {
-                JoinMeasures edge = j;
-                measureClick(take, a, b, edge);
-                if (edge.clickDb > j.clickDb) {
-                    j.clickDb = edge.clickDb;
-                    j.clickTimeS = edge.clickTimeS;
+                JoinMeasures nearby = j;
+                measureClick(take, a, b, nearby);
+                if (nearby.clickDb > j.clickDb) {
+                    j.clickDb = nearby.clickDb;
+                    j.clickTimeS = nearby.clickTimeS;
                 }
             }
         } else {
