@@ -7,6 +7,7 @@
 #include "earmark/store/take_list.hpp"     // parseCsv (RFC 4180)
 
 #include "../longform/finding_json.hpp"
+#include "word_measures_json.hpp"
 
 #include <nlohmann/json.hpp>
 
@@ -300,6 +301,7 @@ ScanReport readCsvReport(const std::string& text, const std::string& path) {
             if (col.count("syllable_source")) m.syllableSource = sourceFromName(cell("syllable_source"));
             row.measures = m;
             row.words = wordsFromCells(cell, where);
+            row.wordTimesFrom = cell("word_times");
         }
         const auto names = split(cell("suspects"), ";");
         const auto reasons = split(cell("reasons"), "; ");
@@ -371,6 +373,9 @@ ScanReport readJsonReport(const std::string& text, const std::string& path) {
                 row.measures = m;
             }
             if (t.contains("words")) row.words = wordsFromJson(t.at("words"));
+            row.wordTimesFrom = t.value("word_times", "");
+            if (t.contains("word_measures"))
+                row.wordProsody = detail::wordMeasuresFromJson(t.at("word_measures"), path, row.id);
             for (const auto& js : t.at("suspects")) {
                 const auto kind = suspectKindFromName(js.at("name").get<std::string>());
                 if (!kind) throw InputError(path, "take '" + row.id + "': unknown suspect '" +
@@ -477,6 +482,7 @@ std::string reportToCsv(const ScanReport& report) {
     std::vector<std::string> header = leadColumns();
     for (const auto& m : measures()) header.push_back(m.name);
     header.push_back("syllable_source");
+    header.push_back("word_times");
     header.insert(header.end(), wordColumns().begin(), wordColumns().end());
     header.insert(header.end(), tailColumns().begin(), tailColumns().end());
     std::string out = csvRecord(header);
@@ -485,6 +491,7 @@ std::string reportToCsv(const ScanReport& report) {
         std::vector<std::string> rec = {std::to_string(++rank), row.id, row.file, row.status};
         for (const auto& m : measures()) rec.push_back(row.measures ? fixed(m.get(*row.measures), m.decimals) : "");
         rec.push_back(row.measures ? syllableSourceName(row.measures->syllableSource) : "");
+        rec.push_back(row.wordTimesFrom);
         for (auto& c : wordCells(row.words)) rec.push_back(std::move(c));
         rec.push_back(row.failed ? "" : std::to_string(row.suspects.size()));
         rec.push_back(row.failed ? "" : fixed(row.score, 3));
@@ -549,6 +556,8 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
         }
         t["suspects"] = suspects;
         t["words"] = wordsToJson(row.words);
+        t["word_times"] = row.wordTimesFrom;
+        t["word_measures"] = detail::wordMeasuresToJson(row.wordProsody);
         Json findings = Json::array();
         for (const Finding& f : row.findings) findings.push_back(detail::findingToJson(f));
         t["findings"] = findings;

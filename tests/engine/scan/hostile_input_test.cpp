@@ -126,5 +126,22 @@ TEST(ScanHostileInput, PositionsThatCannotBeIndicesAreRefused) {
     EXPECT_THROW(readReport(dir.file("bad.json")), InputError);
 }
 
+TEST(ScanHostileInput, PerWordMeasuresWithoutTimesAreRefusedNamingTheFileAndTake) {
+    test::TempDir dir;
+    for (const char* words : {R"("not a list")", R"([{"word": "a", "start_s": "x", "end_s": 1}])", R"([7])"}) {
+        std::ofstream(dir.file("bad.json"), std::ios::binary)
+            << R"({"format": "earmark-scan", "takes": [{"position": 1, "id": "take-7", "file": "a", "status": "ok",
+                  "score_take": 0, "suspects": [], "word_measures": )"
+            << words << "}]}";
+        try {
+            readReport(dir.file("bad.json"));
+            ADD_FAILURE() << words;
+        } catch (const InputError& e) {
+            EXPECT_NE(std::string(e.what()).find("bad.json"), std::string::npos) << e.what();
+            EXPECT_NE(std::string(e.what()).find("take-7"), std::string::npos) << e.what();
+        }
+    }
+}
+
 }  // namespace
 }  // namespace earmark

@@ -6,7 +6,9 @@
 // start times (its utterance structure) are the outside truth.
 #include "earmark/acoustic/word_evidence.hpp"
 #include "earmark/io/audio_file.hpp"
+#include "earmark/scan/scan_report.hpp"
 #include "earmark/scan/scan_run.hpp"
+#include "support/temp_dir.hpp"
 #include "support/festival_takes.hpp"
 
 #include <gtest/gtest.h>
@@ -57,6 +59,37 @@ TEST(ScanWordProsody, TakeWithTextAndNoTimingsUsesTheModelsWordTier) {
     // The measures count the model's words, not just the text's tokens.
     ASSERT_TRUE(row.measures.has_value());
     EXPECT_EQ(row.measures->words, static_cast<int>(row.wordProsody.size()));
+
+    // The report carries both: the CSV's word_times column, the JSON's word_times and word_measures
+    // (merge reads them back, so shards keep them).
+    ScanRun run;
+    run.rows = {row};
+    run.total = 1;
+    const ScanReport report = makeReport(run, settings.rules);
+    test::TempDir dir;
+    std::ofstream(dir.path() / "r.csv", std::ios::binary) << reportToCsv(report);
+    std::ofstream(dir.path() / "r.json", std::ios::binary) << reportToJson(report, settings.rules);
+    EXPECT_NE(reportToCsv(report).find(",word_times,"), std::string::npos);
+    const ScanReport fromCsv = readReport((dir.path() / "r.csv").string());
+    ASSERT_EQ(fromCsv.rows.size(), 1u);
+    EXPECT_EQ(fromCsv.rows[0].wordTimesFrom, "model");
+    const ScanReport fromJson = readReport((dir.path() / "r.json").string());
+    ASSERT_EQ(fromJson.rows.size(), 1u);
+    EXPECT_EQ(fromJson.rows[0].wordTimesFrom, "model");
+    const auto& back = fromJson.rows[0].wordProsody;
+    ASSERT_EQ(back.size(), row.wordProsody.size());
+    for (std::size_t k = 0; k < back.size(); ++k) {
+        EXPECT_EQ(back[k].text, row.wordProsody[k].text);
+        EXPECT_DOUBLE_EQ(back[k].startS, row.wordProsody[k].startS);
+        EXPECT_DOUBLE_EQ(back[k].endS, row.wordProsody[k].endS);
+        EXPECT_EQ(back[k].syllables, row.wordProsody[k].syllables);
+        EXPECT_EQ(back[k].f0MeanHz.has_value(), row.wordProsody[k].f0MeanHz.has_value()) << back[k].text;
+        if (back[k].f0MeanHz) {
+            EXPECT_DOUBLE_EQ(*back[k].f0MeanHz, *row.wordProsody[k].f0MeanHz);
+        }
+        EXPECT_EQ(back[k].pauseBeforeS.has_value(), row.wordProsody[k].pauseBeforeS.has_value());
+        EXPECT_DOUBLE_EQ(back[k].prominence, row.wordProsody[k].prominence);
+    }
 }
 
 TEST(ScanWordProsody, VoicesTheModelDoesNotCoverGetNoModelWordTimes) {

@@ -32,7 +32,7 @@ struct ScanRow {
     TakeWords words;                // word evidence, for takes with text in a voice the model covers
     // Per-word prosody of the word tier the measures used, and where its times came from:
     // "timings" (the take's timings file), "model" (the word evidence's word tier) or "" (no word tier).
-    // Kept in memory only (not in the CSV/JSON report).
+    // The report writes both (CSV column `word_times`; JSON `word_times` and `word_measures`).
     std::vector<WordMeasures> wordProsody;
     std::string wordTimesFrom;
     double takeScore = 0.0;         // score of the per-take suspects
