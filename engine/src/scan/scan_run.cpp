@@ -1,5 +1,6 @@
 #include "earmark/scan/scan_run.hpp"
 
+#include "earmark/acoustic/evidence_trust.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/prosody/take_measures.hpp"
 #include "earmark/tiers/timings_file.hpp"
@@ -31,6 +32,13 @@ std::optional<WordEvidenceResult> checkWords(const ScanItem& item, const Signal&
         evidence = gatherWordEvidence(signal, item.text, params, progress);
     } catch (const InputError& e) {
         row.status += "; words not checked: " + e.subject() + " " + e.problem();
+        return std::nullopt;
+    }
+    // Too few of the script's words placed: every word would read as skipped or extra, and the
+    // model's word tier would make the per-word measures (and the rate suspects) wrong. Say so
+    // instead, as the window does.
+    if (const std::string doubt = evidenceDoubt(*evidence); !doubt.empty()) {
+        row.status += "; words not checked: " + doubt;
         return std::nullopt;
     }
     row.words = summariseWords(*evidence);

@@ -13,6 +13,7 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <cmath>
 #include <fstream>
 
@@ -90,6 +91,29 @@ TEST(ScanWordProsody, TakeWithTextAndNoTimingsUsesTheModelsWordTier) {
         EXPECT_EQ(back[k].pauseBeforeS.has_value(), row.wordProsody[k].pauseBeforeS.has_value());
         EXPECT_DOUBLE_EQ(back[k].prominence, row.wordProsody[k].prominence);
     }
+}
+
+// A script mostly not in the take (three times the take's own text): the model places under half of
+// it, so the row gets no word suspects and no model word times, and its status says why.
+TEST(ScanWordProsody, EvidenceThatPlacesUnderHalfTheScriptIsNotUsed) {
+    const fs::path wav = test::festivalTakes() / "kal-01.wav";
+    const std::string text = test::firstLine(fs::path(wav).replace_extension(".txt"));
+    ScanSettings settings;
+    const ScanRow row = scanTake(ScanItem{0, "kal-01", wav.string(), text + " " + text + " " + text, "", ""}, settings);
+    ASSERT_FALSE(row.failed) << row.status;
+    EXPECT_NE(row.status.find("words not checked: the acoustic model placed only"), std::string::npos) << row.status;
+    EXPECT_FALSE(row.words.gathered());
+    EXPECT_EQ(row.wordTimesFrom, "");
+    EXPECT_TRUE(row.wordProsody.empty());
+    for (const auto& s : row.suspects) {
+        const std::string name = suspectName(s.kind);
+        for (const char* wordRule : {"skipped-word", "repeated-word", "extra-speech", "early-end", "substituted-word"})
+            EXPECT_NE(name, wordRule) << s.reason;
+    }
+    // The measures count the script's tokens instead.
+    ASSERT_TRUE(row.measures.has_value());
+    const auto tokens = std::count(text.begin(), text.end(), ' ') + 1;
+    EXPECT_EQ(row.measures->words, 3 * tokens);
 }
 
 TEST(ScanWordProsody, VoicesTheModelDoesNotCoverGetNoModelWordTimes) {

@@ -56,8 +56,9 @@ struct ScanSettings {
 // when those cannot be measured the status says why. A take with text whose
 // voice (its own, else settings.voice) the acoustic model covers gets word
 // evidence and the coverage suspects (word_checks.hpp) when any word rule is
-// on; text that cannot be aligned is noted in the status ("ok; words not
-// checked: …"). The per-word measures and suspects use the timings file's
+// on; text that cannot be aligned, or evidence that placed under half of
+// the script's words (acoustic/evidence_trust.hpp), is noted in the status
+// ("ok; words not checked: …") and not used. The per-word measures and suspects use the timings file's
 // word tier, else the word evidence's (the model's) word tier. Throws Cancelled when `progress` asks to stop.
 ScanRow scanTake(const ScanItem& item, const ScanSettings& settings, Progress progress = {});
 
