@@ -5,6 +5,7 @@
 #include "earmark/widgets/drift_lane.hpp"
 #include "earmark/widgets/energy_lane.hpp"
 #include "earmark/widgets/help_overlay.hpp"
+#include "earmark/widgets/elided_label.hpp"
 #include "earmark/widgets/hover_readout.hpp"
 #include "earmark/widgets/lane_stack.hpp"
 #include "earmark/widgets/mark_lane.hpp"
@@ -223,10 +224,11 @@ QDockWidget* MainWindow::addPanel(const QString& title, const QString& objectNam
 
 void MainWindow::buildStatusBar() {
     readout_ = new HoverReadout(view_, this);
-    statusBar()->addWidget(readout_, 1);
-    message_ = new QLabel(this);
+    statusBar()->addWidget(readout_);
+    message_ = new widgets::ElidedLabel(this);
+    message_->setObjectName("statusMessage");
     message_->hide();
-    statusBar()->addWidget(message_);
+    statusBar()->addWidget(message_, 1);
     messageTimer_.setSingleShot(true);
     connect(&messageTimer_, &QTimer::timeout, this, [this] { notify({}); });
     takeInfo_ = new QLabel(this);
@@ -303,6 +305,7 @@ void MainWindow::selectTake(int row) {
     view_->resetForDuration(0.0);
     stack_->setTake(nullptr);
     readout_->setTracks(nullptr);
+    showSelectionMeasures();
     updateTakeInfo();
     updateTitle();
     updateSessionActions();
@@ -358,6 +361,7 @@ void MainWindow::onTracks(quint64, TakeTracksPtr tracks) {
     stack_->setTracks(tracks);
     readout_->setTracks(tracks);
     updateTakeInfo();
+    showSelectionMeasures();
     emit takeSettled(true, {});
 }
 
@@ -444,6 +448,10 @@ void MainWindow::auditionSuspect() {
 
 void MainWindow::showPlaybackState() {
     playbackState_->setText(tr("speed %1× · %2").arg(player_->rate()).arg(player_->looping() ? tr("repeat") : tr("once")));
+    // Bold when playback differs from plain: slowed, sped up or repeating is easy to forget.
+    QFont font = playbackState_->font();
+    font.setBold(player_->rate() != 1.0 || player_->looping());
+    playbackState_->setFont(font);
     playbackState_->setToolTip(tr("Playback speed keeps the pitch. %1 / %2 change it, %3 repeats the selection.")
                                    .arg(QKeySequence(Qt::Key_Down).toString(QKeySequence::NativeText),
                                         QKeySequence(Qt::Key_Up).toString(QKeySequence::NativeText),

@@ -38,6 +38,7 @@ namespace earmark::widgets {
 class AlignDialog;
 class AudioPlayer;
 class HelpOverlay;
+class ElidedLabel;
 class HoverReadout;
 class LaneStack;
 class ModelMelLane;
@@ -184,6 +185,7 @@ private:
     void updateTitle();
     void updateSessionActions();
     MeasureSnapshot measuresFor(double start, double end) const;
+    void showSelectionMeasures();  // the inspector's measures while no mark is selected
     void onAudio(quint64 request, widgets::TakeAudioPtr audio);
     void onTracks(quint64 request, widgets::TakeTracksPtr tracks);
     void onFailed(quint64 request, const QString& message);
@@ -245,7 +247,7 @@ private:
     QLabel* takeInfo_ = nullptr;
     QLabel* playbackState_ = nullptr;  // rate and loop, always visible
     QAction* loopToggle_ = nullptr;
-    QLabel* message_ = nullptr;
+    widgets::ElidedLabel* message_ = nullptr;  // gives way to the figures beside it when long
     QTimer messageTimer_;
     std::vector<QAction*> playActions_;
     std::vector<QAction*> sessionActions_;  // need an open session

@@ -86,6 +86,8 @@ void MainWindow::onWordEvidence(quint64, WordEvidencePtr evidence) {
     if (const std::string doubt = evidenceDoubt(*evidence); !doubt.empty()) {
         const QString why = tr("Word evidence: %1.").arg(QString::fromStdString(doubt));
         clearWordEvidence(why);
+        if (TierLane* words = tierLane(QStringLiteral("words")); words && words->tier().intervals.empty())
+            words->setHint(tr("no words: %1").arg(QString::fromStdString(doubt)));
         notify(why, 8000);
         emit evidenceSettled(false, why);
         return;

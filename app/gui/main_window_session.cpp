@@ -50,6 +50,7 @@ void MainWindow::buildSessionPanels() {
     inspector_ = new MarkInspector(this);
     addPanel(tr("Mark"), "markDock", inspector_, Qt::RightDockWidgetArea);
     connect(inspector_, &MarkInspector::draftEdited, this, [this](qint64 id, const MarkDraft& d) { editMark(id, d); });
+    connect(view_, &ViewState::selectionChanged, this, &MainWindow::showSelectionMeasures);
 
     markList_ = new MarkList(this);
     addPanel(tr("Marks of the session"), "markListDock", markList_, Qt::BottomDockWidgetArea);
@@ -169,6 +170,15 @@ MeasureSnapshot MainWindow::measuresFor(double start, double end) const {
     if (!tracks_ || !audio_) return {};
     const std::string text = currentRow_ >= 0 ? takes_[static_cast<std::size_t>(currentRow_)].text.toStdString() : std::string();
     return snapshotForSpan(*tracks_, audio_->duration(), tiers_, text, start, end);
+}
+
+void MainWindow::showSelectionMeasures() {
+    const std::optional<TimeRange> selection = view_->selection();
+    if (!selection || !tracks_) {
+        inspector_->setSelection(std::nullopt);
+        return;
+    }
+    inspector_->setSelection(std::make_pair(selection->start, selection->end), measuresFor(selection->start, selection->end));
 }
 
 void MainWindow::showMarks() {

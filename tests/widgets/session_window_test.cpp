@@ -80,6 +80,27 @@ TEST_F(SessionWindow, TheQueueNavigatesAndStatusKeysWriteTheSession) {
     EXPECT_EQ(window.reviewQueue()->progressText(), "12 / 12 reviewed");
 }
 
+// With no mark selected, the inspector measures the selection; the mark made from it then shows
+// the same figures (the measures do not depend on whether a span is marked yet).
+TEST_F(SessionWindow, TheSelectionIsMeasuredBeforeItIsMarked) {
+    ASSERT_TRUE(settles([&] { ASSERT_TRUE(window.openSession(demo.path)); }));
+    MarkInspector* inspector = window.markInspector();
+    EXPECT_FALSE(inspector->mark());
+    EXPECT_EQ(inspector->measuresTitle(), "Measures of the span");
+    EXPECT_TRUE(inspector->measuresText().contains("duration: —"));
+    window.viewState()->setSelection(TimeRange{0.5, 0.9});
+    EXPECT_EQ(inspector->measuresTitle(), "Measures of the selection, 0.500–0.900 s");
+    const QString ofSelection = inspector->measuresText();
+    EXPECT_TRUE(ofSelection.contains("duration: 0.400 s")) << ofSelection.toStdString();
+    EXPECT_FALSE(ofSelection.contains("F0 mean: —")) << ofSelection.toStdString();  // the demo takes are voiced there
+    key(Qt::Key_N);
+    QTest::keyClick(window.markPalette()->filterEdit(), Qt::Key_2);
+    QTest::keyClick(window.markPalette()->filterEdit(), Qt::Key_Return);
+    ASSERT_TRUE(inspector->mark());
+    EXPECT_EQ(inspector->measuresTitle(), "Measures of the mark");
+    EXPECT_EQ(inspector->measuresText(), ofSelection);
+}
+
 TEST_F(SessionWindow, AMarkMadeWithTwoKeysIsStoredAndUndoable) {
     ASSERT_TRUE(settles([&] { ASSERT_TRUE(window.openSession(demo.path)); }));
     const TakeId take = *window.currentTakeId();

@@ -2,6 +2,7 @@
 // the view export.
 #include "earmark/core/error.hpp"
 #include "earmark/widgets/analysis_settings.hpp"
+#include "earmark/widgets/elided_label.hpp"
 #include "earmark/widgets/hover_readout.hpp"
 #include "earmark/widgets/view_export.hpp"
 #include "earmark/widgets/waveform_lane.hpp"
@@ -94,6 +95,23 @@ TEST(HoverReadout, ShowsTimeF0AndEnergy) {
     view.setCursor(0.25);
     view.setSelection(TimeRange{0.25, 0.75});
     EXPECT_EQ(readout.text(), QString::fromUtf8("cursor 0.250 s  ·  selection 0.250–0.750 s (500 ms)"));
+}
+
+// A long status message gives way: it is cut with "…" to its width, keeps the whole text as its
+// tooltip, and asks for only a few characters' width at least.
+TEST(ElidedLabel, ALongTextIsCutToItsWidthAndKeptWhole) {
+    ElidedLabel label;
+    const QString text = "Word evidence: the acoustic model placed only 2 of 13 script words: word evidence not shown";
+    label.setText(text);
+    label.resize(label.sizeHint());
+    EXPECT_EQ(label.shownText(), text);
+    EXPECT_LT(label.minimumSizeHint().width(), label.sizeHint().width() / 3);
+    label.resize(120, label.height());
+    const QString shown = label.shownText();
+    EXPECT_TRUE(shown.endsWith(QChar(0x2026))) << shown.toStdString();
+    EXPECT_TRUE(text.startsWith(shown.chopped(1))) << shown.toStdString();
+    EXPECT_LE(label.fontMetrics().horizontalAdvance(shown), 120);
+    EXPECT_EQ(label.toolTip(), text);
 }
 
 TEST(ViewExport, WritesPngAndPdf) {

@@ -35,10 +35,10 @@ MarkInspector::MarkInspector(QWidget* parent) : QWidget(parent) {
     form->addRow(tr("severity"), severity_);
     form->addRow(tr("note"), note_);
     layout->addWidget(fields_);
-    auto* box = new QGroupBox(tr("Measures of the span"), this);
-    measures_ = new QFormLayout(box);
-    for (const auto& [label, value] : describeMeasures({})) measures_->addRow(label, new QLabel(value, box));
-    layout->addWidget(box);
+    measuresBox_ = new QGroupBox(this);
+    measures_ = new QFormLayout(measuresBox_);
+    for (const auto& [label, value] : describeMeasures({})) measures_->addRow(label, new QLabel(value, measuresBox_));
+    layout->addWidget(measuresBox_);
     layout->addStretch(1);
     connect(category_, &QComboBox::currentIndexChanged, this, [this] {
         if (filling_) return;
@@ -85,11 +85,30 @@ void MarkInspector::setMark(std::optional<Mark> mark) {
         severity_->setCurrentIndex(severity_->findData(static_cast<int>(m.severity)));
         if (!note_->hasFocus()) note_->setText(QString::fromStdString(m.note));
     }
-    const auto rows = describeMeasures(mark_ ? mark_->measures : MeasureSnapshot{});
+    showMeasures();
+    filling_ = false;
+}
+
+void MarkInspector::setSelection(std::optional<std::pair<double, double>> span, const MeasureSnapshot& measures) {
+    selection_ = span;
+    selectionMeasures_ = span ? measures : MeasureSnapshot{};
+    if (!mark_) showMeasures();
+}
+
+QString MarkInspector::measuresTitle() const { return measuresBox_->title(); }
+
+void MarkInspector::showMeasures() {
+    const bool ofSelection = !mark_ && selection_;
+    if (mark_)
+        measuresBox_->setTitle(tr("Measures of the mark"));
+    else if (ofSelection)
+        measuresBox_->setTitle(tr("Measures of the selection, %1–%2 s").arg(selection_->first, 0, 'f', 3).arg(selection_->second, 0, 'f', 3));
+    else
+        measuresBox_->setTitle(tr("Measures of the span"));
+    const auto rows = describeMeasures(mark_ ? mark_->measures : ofSelection ? selectionMeasures_ : MeasureSnapshot{});
     for (int i = 0; i < static_cast<int>(rows.size()) && i < measures_->rowCount(); ++i)
         if (auto* value = qobject_cast<QLabel*>(measures_->itemAt(i, QFormLayout::FieldRole)->widget()))
             value->setText(rows[static_cast<std::size_t>(i)].second);
-    filling_ = false;
 }
 
 QString MarkInspector::measuresText() const {

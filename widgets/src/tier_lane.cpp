@@ -18,11 +18,14 @@ constexpr double grabPixels = 4.0;  // how near a boundary the pointer grabs it
 TierLane::TierLane(const QString& tierName, const QString& title, ViewState* view, QWidget* parent)
     : SpanLane("tier-" + tierName, title, view, parent), tierName_(tierName) {
     tier_.name = tierName.toStdString();
-    setHint(tr("no %1 for this take").arg(tierName));
+    setHint(defaultHint());
     setMinimumHeight(22);
 }
 
+QString TierLane::defaultHint() const { return tr("no %1 for this take").arg(tierName_); }
+
 void TierLane::setTier(const Tier& tier) {
+    setHint(defaultHint());  // a reason given for the previous take's empty tier no longer holds
     tier_ = tier;
     tier_.name = tierName_.toStdString();
     if (editor_) editor_->deleteLater();

@@ -45,7 +45,9 @@ public:
     bool followsVisibleRange() const override { return true; }
 
     const QString& tierName() const { return tierName_; }
-    void setTier(const Tier& tier);  // an empty tier (no intervals) shows a hint
+    // An empty tier (no intervals) shows a hint: "no <tier> for this take", or the reason
+    // given with setHint() until the next setTier().
+    void setTier(const Tier& tier);
     const Tier& tier() const { return tier_; }
     // Word scores to draw over the tier (empty: none).
     void setScoreMarks(std::vector<WordScoreMark> marks);
@@ -70,6 +72,7 @@ protected:
     void leaveEvent(QEvent* event) override;
 
 private:
+    QString defaultHint() const;
     std::optional<TierBoundary> boundaryNear(double x) const;
     void drawScoreMarks(QPainter& painter);
     void selectInterval(int index);
