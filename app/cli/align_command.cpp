@@ -5,7 +5,7 @@
 #include "output_file.hpp"
 #include "terminal_progress.hpp"
 
-#include "earmark/acoustic/word_evidence.hpp"
+#include "earmark/acoustic/model_aligner.hpp"
 #include "earmark/align/text_aligner.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/io/audio_file.hpp"
@@ -94,15 +94,7 @@ int runAlign(const std::vector<std::string>& argv) {
         channels.channel = static_cast<int>(*n) - 1;
     }
 
-    std::string method = args.valueOr("method", "auto");
-    if (method != "auto" && method != "model" && method != "reference")
-        throw UsageError("--method expects auto, model or reference");
-    if (method == "auto") method = modelCoversVoice(params.speech.voice) ? "model" : "reference";
-    if (method == "model" && !modelCoversVoice(params.speech.voice)) {
-        if (!modelCoversVoice("en"))
-            throw InputError("acoustic model", "not installed (Debian package pocketsphinx-en-us); use --method reference");
-        throw UsageError("--method model covers English only; voice '" + params.speech.voice + "' needs --method reference");
-    }
+    const std::string method = resolveAlignMethod(args.valueOr("method", "auto"), params.speech.voice);
 
     AlignResult result;
     {
@@ -110,11 +102,7 @@ int runAlign(const std::vector<std::string>& argv) {
         const LoadedAudio audio = loadAudio(audioPath, channels, {}, bar.progress().sub(0.0, 0.1));
         try {
             if (method == "model") {
-                WordEvidenceParams evidence;
-                evidence.voice = params.speech.voice;
-                WordEvidenceResult r = gatherWordEvidence(audio.signal, text, evidence, bar.progress().sub(0.1, 1.0));
-                result.tiers = std::move(r.tiers);
-                result.meanConfidence = r.meanConfidence;
+                result = alignWithModel(audio.signal, text, params.speech.voice, bar.progress().sub(0.1, 1.0));
             } else {
                 result = alignText(audio.signal, text, params, bar.progress().sub(0.1, 1.0));
             }

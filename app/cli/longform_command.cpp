@@ -6,6 +6,7 @@
 #include "output_file.hpp"
 #include "terminal_progress.hpp"
 
+#include "earmark/acoustic/model_aligner.hpp"
 #include "earmark/io/audio_file.hpp"
 #include "earmark/io/text_file.hpp"
 #include "earmark/longform/longform_json.hpp"
@@ -32,6 +33,12 @@ Arguments makeArguments() {
                                                    "and word timings"},
                          {"tiers", "OUT", "", "with --text-file: write the paragraph, sentence, word and phone "
                                               "tiers as Earmark timings JSON"},
+                         {"method", "auto|model|reference", "auto",
+                          "with --text-file: model: the trained acoustic model's forced alignment (English); "
+                          "reference: an espeak-ng reading matched by DTW; auto: model for English voices when "
+                          "installed"},
+                         {"voice", "NAME", "en-us", "the voice the text is read in (espeak-ng's name: en-us, "
+                                                    "en-gb-x-rp, de…); chooses the method and guesses unknown words"},
                          {"rules", "FILE", "built in", "thresholds as JSON (sections longform, seam, "
                                                        "level_drift, … of docs/rules-default.json)"},
                          {"progress", "", "", "show progress on stderr even when it is not a terminal"},
@@ -69,6 +76,8 @@ int runLongform(const std::vector<std::string>& argv) {
 
     const std::string textFile = args.valueOr("text-file", "");
     if (args.has("tiers") && textFile.empty()) throw UsageError("--tiers needs --text-file");
+    const std::string voice = args.valueOr("voice", "en-us");
+    const std::string method = textFile.empty() ? std::string() : resolveAlignMethod(args.valueOr("method", "auto"), voice);
     std::string text;
     if (!textFile.empty()) text = withoutByteOrderMark(readTextFile(textFile));
 
@@ -84,7 +93,7 @@ int runLongform(const std::vector<std::string>& argv) {
                                  chunks.empty() ? "chunks" : chunks);
         if (!textFile.empty()) {
             try {
-                aligned = alignLongText(audio.signal, text, referenceWarpingAligner(), {}, progress.sub(0.5, 1.0));
+                aligned = alignLongText(audio.signal, text, chunkAlignerFor(method, voice), {}, progress.sub(0.5, 1.0));
             } catch (const InputError& e) {
                 throw InputError(textFile, e.problem());
             }
@@ -98,9 +107,11 @@ int runLongform(const std::vector<std::string>& argv) {
     if (!json || *json != "-") {
         printSummary(path, report);
         if (aligned)
-            std::printf("text:      %zu paragraphs, %zu sentences aligned in %d chunks, mean word confidence %.2f\n",
+            std::printf("text:      %zu paragraphs, %zu sentences aligned in %d chunks (method %s), mean word "
+                        "confidence %.2f\n",
                         aligned->tiers.find(kParagraphsTier)->intervals.size(),
-                        aligned->tiers.find(kSentencesTier)->intervals.size(), aligned->chunks, aligned->meanConfidence);
+                        aligned->tiers.find(kSentencesTier)->intervals.size(), aligned->chunks,
+                        aligned->method.c_str(), aligned->meanConfidence);
     }
     return kExitOk;
 }

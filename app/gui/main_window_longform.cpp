@@ -92,7 +92,7 @@ void MainWindow::startLongform() {
     driftLane_->setReview(nullptr, tr("measuring the take over time…"));
     longformPanel_->setNote(text.trimmed().isEmpty() ? tr("Measuring the take over time…")
                                                      : tr("Measuring the take over time and aligning its text…"));
-    longformLoader_->start(audio_, text);
+    longformLoader_->start(audio_, text, voice_);
 }
 
 void MainWindow::onLongform(LongTakeReviewPtr review) {

@@ -89,6 +89,24 @@ TEST(LongformCli, TextFileGivesParagraphsAndSentences) {
     EXPECT_EQ(j["text"]["sentences"][3]["text"], test::longReadSentence(3));
     const auto t = nlohmann::json::parse(std::ifstream(tiers));
     EXPECT_FALSE(t.dump().empty());
+    // auto with the default English voice: the acoustic model, the reference where it does not fit a chunk.
+    EXPECT_EQ(j["text"]["method"].get<std::string>().rfind("model", 0), 0u) << j["text"]["method"];
+}
+
+TEST(LongformCli, MethodIsChosenAndRecorded) {
+    TempDir dir;
+    const ShortRead r = writeRead(dir);
+    const std::string text = dir.file("chapter.txt");
+    std::ofstream(text) << r.read.text;
+    const auto reference = runCli({"longform", r.audio, "--text-file", text, "--method", "reference", "--json", "-"});
+    ASSERT_EQ(reference.exitCode, 0) << reference.err;
+    EXPECT_EQ(nlohmann::json::parse(reference.out)["text"]["method"], "reference");
+    const auto unknown = runCli({"longform", r.audio, "--text-file", text, "--method", "guess"});
+    EXPECT_EQ(unknown.exitCode, 2);
+    EXPECT_THAT(unknown.err, HasSubstr("expects auto, model or reference"));
+    const auto german = runCli({"longform", r.audio, "--text-file", text, "--method", "model", "--voice", "de"});
+    EXPECT_EQ(german.exitCode, 2);
+    EXPECT_THAT(german.err, HasSubstr("English only"));
 }
 
 TEST(LongformCli, TextCoveringHalfTheAudioIsBadInput) {

@@ -1,5 +1,7 @@
 #include "earmark/widgets/longform_loader.hpp"
 
+#include "earmark/acoustic/model_aligner.hpp"
+
 namespace earmark::widgets {
 
 LongformLoader::LongformLoader(QObject* parent) : QObject(parent) {}
@@ -8,11 +10,12 @@ LongformLoader::~LongformLoader() {
     blockSignals(true);  // receivers may be half-destroyed already (a parent window)
 }
 
-void LongformLoader::start(TakeAudioPtr audio, const QString& text) {
+void LongformLoader::start(TakeAudioPtr audio, const QString& text, const QString& voice) {
     job_.start(
         this,
-        [audio, text = text.toStdString()](Progress progress) {
-            return reviewLongTake(audio->signal, text, LongformRules{}, referenceWarpingAligner(), progress);
+        [audio, text = text.toStdString(), voice = voice.toStdString()](Progress progress) {
+            const ChunkAligner aligner = chunkAlignerFor(resolveAlignMethod("auto", voice), voice);
+            return reviewLongTake(audio->signal, text, LongformRules{}, aligner, progress);
         },
         [this](double f) { emit progressChanged(f); },
         [this](LongTakeReviewPtr review, const QString& error) {

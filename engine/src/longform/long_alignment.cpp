@@ -1,5 +1,7 @@
 #include "earmark/longform/long_alignment.hpp"
 
+#include "earmark/acoustic/model_aligner.hpp"
+
 #include "earmark/align/reference_tiers.hpp"
 #include "earmark/core/error.hpp"
 #include "earmark/level/energy.hpp"
@@ -90,6 +92,22 @@ ChunkAligner referenceWarpingAligner(const AlignParams& params) {
     };
 }
 
+ChunkAligner modelChunkAligner(const std::string& voice) {
+    return [voice](const Signal& audio, const std::string& text, Progress progress) {
+        return alignWithModelOrReference(audio, text, voice, progress);
+    };
+}
+
+ChunkAligner chunkAlignerFor(const std::string& method, const std::string& voice) {
+    if (method == "model") return modelChunkAligner(voice);
+    if (method == "reference") {
+        AlignParams params;
+        params.speech.voice = voice;
+        return referenceWarpingAligner(params);
+    }
+    throw ParamError("method", "expects model or reference, not '" + method + "'");
+}
+
 LongAlignResult alignLongText(const Signal& take, const std::string& text, const ChunkAligner& aligner,
                               const LongAlignParams& params, Progress progress) {
     params.validate();
@@ -164,6 +182,7 @@ LongAlignResult alignLongText(const Signal& take, const std::string& text, const
                                          quoted(sentences[s].text) + ") at " + seconds(anchor) + ": " + err.problem());
         }
         ++result.chunks;
+        result.referenceChunks += aligned.method == "reference";
         // Match the aligner's words to the text's tokens in order; keep the chunk's own.
         const Tier* got = aligned.tiers.find(kWordsTier);
         std::size_t token = sentences[s].firstToken;
@@ -226,6 +245,11 @@ LongAlignResult alignLongText(const Signal& take, const std::string& text, const
             ++counted;
         }
     result.meanConfidence = counted ? confidence / counted : 0.0;
+    if (result.referenceChunks == 0) result.method = "model";
+    else if (result.referenceChunks == result.chunks) result.method = "reference";
+    else
+        result.method = "model, reference for " + std::to_string(result.referenceChunks) + " of " +
+                        std::to_string(result.chunks) + " chunks";
     result.tiers.tiers = {std::move(paragraphs), std::move(sentenceTier), std::move(words), std::move(phones)};
     progress.report(1.0);
     return result;

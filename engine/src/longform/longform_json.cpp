@@ -87,7 +87,8 @@ std::string longformToJson(const LongformReport& report, const LongformRules& ru
             return list;
         };
         const Tier* words = text->tiers.find(kWordsTier);
-        doc["text"] = {{"chunks", text->chunks},
+        doc["text"] = {{"method", text->method},
+                       {"chunks", text->chunks},
                        {"words", words ? words->intervals.size() : 0},
                        {"mean_confidence", number(text->meanConfidence)},
                        {"paragraphs", intervals(kParagraphsTier)},

@@ -76,6 +76,7 @@ struct AlignResult {
     double speechStartS = 0.0, speechEndS = 0.0;  // speech span found in the take
     std::size_t dtwCells = 0;     // cost cells stored by the larger DTW pass (4 bytes each)
     std::string voiceName;        // as espeak-ng names the voice used
+    std::string method = "reference";  // which aligner made the tiers: "reference" (this one) or "model"
 };
 
 // Aligns `text` (UTF-8) to `take`. Times are seconds from the start of the

@@ -14,7 +14,8 @@
 // and memory is that of one chunk's alignment.
 //
 // The aligner is a parameter (ChunkAligner), so any word aligner can be
-// used; referenceWarpingAligner wraps alignText (text_aligner.hpp).
+// used; referenceWarpingAligner wraps alignText (text_aligner.hpp),
+// modelChunkAligner the trained acoustic model's forced alignment.
 //
 // Result tiers: "paragraphs" and "sentences" (from their first word's start
 // to their last word's end; labels: the paragraph's first sentence, or the
@@ -45,6 +46,13 @@ using ChunkAligner = std::function<AlignResult(const Signal& audio, const std::s
 
 // alignText with these params.
 ChunkAligner referenceWarpingAligner(const AlignParams& params = {});
+// The trained acoustic model's forced alignment of text read in `voice`
+// (English voices), falling back to the reference for a chunk the model does
+// not fit (alignWithModelOrReference, acoustic/model_aligner.hpp).
+ChunkAligner modelChunkAligner(const std::string& voice);
+// The aligner of a resolved method ("model" or "reference", see
+// resolveAlignMethod) for text read in `voice`. Throws ParamError("method", …) for another name.
+ChunkAligner chunkAlignerFor(const std::string& method, const std::string& voice);
 
 struct LongAlignParams {
     double chunkTargetSeconds = 40.0;     // expected speech per chunk, s. Valid: [5, 600]
@@ -60,6 +68,10 @@ struct LongAlignResult {
     TierSet tiers;
     int chunks = 0;
     double meanConfidence = 0.0;  // over words
+    // Which aligner made the tiers: the chunks' AlignResult::method when all agree ("model",
+    // "reference"), else "model, reference for K of N chunks".
+    std::string method;
+    int referenceChunks = 0;      // chunks the reference aligner placed
 };
 
 LongAlignResult alignLongText(const Signal& take, const std::string& text, const ChunkAligner& aligner,

@@ -22,8 +22,9 @@ public:
     explicit LongformLoader(QObject* parent = nullptr);
     ~LongformLoader() override;
 
-    // `text` empty: measures and findings only.
-    void start(TakeAudioPtr audio, const QString& text);
+    // `text` empty: measures and findings only. The text, read in `voice`, is aligned with the
+    // acoustic model where it covers the voice, else with the espeak-ng reference (resolveAlignMethod).
+    void start(TakeAudioPtr audio, const QString& text, const QString& voice = QStringLiteral("en-us"));
     void cancel();
     bool busy() const { return job_.busy(); }
 
