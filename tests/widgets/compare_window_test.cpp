@@ -59,15 +59,19 @@ TEST(TakePair, MapsAPositionToBAndBackConsistently) {
     const double hop = c.alignment.hopSeconds;
     for (double t = 0.3; t < 4.0; t += 0.25) {
         const double b = mapToOtherSide(c, PairSide::A, t);
-        EXPECT_GE(b, 0.0);
-        EXPECT_LE(b, c.b.durationS);
         EXPECT_NEAR(mapToOtherSide(c, PairSide::B, b), t, 3 * hop) << t;
     }
-    // Word boundaries meet word boundaries (word-by-word alignment).
+    // Word boundaries meet word boundaries (word-by-word alignment), and the middle of each word of A
+    // lands inside the same word of B.
     const auto& wa = c.a.words.intervals;
     const auto& wb = c.b.words.intervals;
     ASSERT_EQ(wa.size(), wb.size());
     EXPECT_NEAR(mapToOtherSide(c, PairSide::A, wa[7].startS), wb[7].startS, 2 * hop);
+    for (std::size_t k = 0; k < wa.size(); ++k) {
+        const double b = mapToOtherSide(c, PairSide::A, 0.5 * (wa[k].startS + wa[k].endS));
+        EXPECT_GT(b, wb[k].startS) << wa[k].label;
+        EXPECT_LT(b, wb[k].endS) << wa[k].label;
+    }
 }
 
 TEST(CompareWindow, TableHasTheWordsOfAAndHighlightsTheLargestDifferences) {
