@@ -45,36 +45,58 @@ struct Hinge {
     double change = 0.0;  // over [t0, last centre]
 };
 
+// Least-squares hinge (broken-stick regression): y = a + b·max(0, x − t0).
+// The knee is searched over the window centres, then between the neighbours
+// of the best one on a grid of kKneeStepSeconds, so it is placed finer than
+// the window hop (the windows' means smooth a hinge symmetrically about its knee).
+constexpr double kKneeStepSeconds = 0.1;
+
 Hinge fitHinge(const std::vector<double>& x, const std::vector<double>& y, double minSpan) {
-    Hinge best;
-    double bestSse = INFINITY;
     const double last = x.back();
-    for (std::size_t c = 0; c < x.size(); ++c) {
-        const double t0 = x[c];
-        if (last - t0 < minSpan && c > 0) break;
+    const auto fitAt = [&](double t0, Hinge& out) -> double {
         double mh = 0, my = 0;
         for (std::size_t i = 0; i < x.size(); ++i) {
             mh += std::max(0.0, x[i] - t0);
             my += y[i];
         }
-        mh /= x.size();
-        my /= x.size();
+        mh /= static_cast<double>(x.size());
+        my /= static_cast<double>(x.size());
         double shy = 0, shh = 0;
         for (std::size_t i = 0; i < x.size(); ++i) {
             const double h = std::max(0.0, x[i] - t0) - mh;
             shy += h * (y[i] - my);
             shh += h * h;
         }
-        if (!(shh > 0)) continue;
+        if (!(shh > 0)) return INFINITY;
         const double b = shy / shh, a = my - b * mh;
         double sse = 0;
         for (std::size_t i = 0; i < x.size(); ++i) {
             const double r = y[i] - (a + b * std::max(0.0, x[i] - t0));
             sse += r * r;
         }
-        if (sse < bestSse) {
+        out = {t0, a, b * (last - t0)};
+        return sse;
+    };
+    Hinge best;
+    double bestSse = INFINITY;
+    std::size_t bestIndex = 0;
+    for (std::size_t c = 0; c < x.size(); ++c) {
+        if (last - x[c] < minSpan && c > 0) break;
+        Hinge h;
+        if (const double sse = fitAt(x[c], h); sse < bestSse) {
             bestSse = sse;
-            best = {t0, a, b * (last - t0)};
+            best = h;
+            bestIndex = c;
+        }
+    }
+    if (!std::isfinite(bestSse)) return best;
+    const double from = bestIndex > 0 ? x[bestIndex - 1] : x[bestIndex];
+    const double to = std::min(bestIndex + 1 < x.size() ? x[bestIndex + 1] : x[bestIndex], last - minSpan);
+    for (double t0 = from; t0 <= to; t0 += kKneeStepSeconds) {
+        Hinge h;
+        if (const double sse = fitAt(t0, h); sse < bestSse) {
+            bestSse = sse;
+            best = h;
         }
     }
     return best;
@@ -190,10 +212,13 @@ std::vector<Finding> findDrifts(const LongTakeSeries& series, const LongformRule
         const TrendFit fit = theilSen(xa, ya);
         if (!fit.significant() || (fit.slope > 0) != (h.change > 0)) continue;
         const double end = series.windows.back().endS;
+        // A knee at the first window's centre is a straight line over all the data: the drift runs
+        // from the start of the first window measured.
+        const double start = h.t0 <= x.front() ? std::max(0.0, x.front() - 0.5 * series.windowSeconds) : h.t0;
         char buf[200];
         std::snprintf(buf, sizeof buf, "%s: %s drifts %+.1f %s from %.1f s to %.1f s (|change| >= %.1f %s)",
-                      findingName(s.kind), s.words, value, s.unit, h.t0, end, s.rule->minChange, s.unit);
-        out.push_back(make(s.kind, s.measure, s.unit, h.t0, end, value, s.rule->minChange, buf));
+                      findingName(s.kind), s.words, value, s.unit, start, end, s.rule->minChange, s.unit);
+        out.push_back(make(s.kind, s.measure, s.unit, start, end, value, s.rule->minChange, buf));
     }
     return out;
 }

@@ -6,12 +6,13 @@
 //   shows, weaker, at the neighbouring joins too). Span: the pause holding
 //   the join (a click: ±5 ms of it).
 // - level-drift, pitch-drift, rate-drift: a "hinge" least-squares fit of the
-//   window series (level constant up to t0, then linear; t0 on the window
-//   centres, at least driftMinSpanSeconds before the end, or the first
-//   centre for a plain line); the change over [t0, end] must pass the rule
-//   and the Theil–Sen slope of the windows after t0 must be significant
-//   (95 %) with the same sign. Span [t0, end of the last window]: located to
-//   a window hop, not to the sample.
+//   window series (level constant up to t0, then linear; t0 first on the
+//   window centres, at least driftMinSpanSeconds before the end, then on a
+//   0.1 s grid between the best centre's neighbours); the change over
+//   [t0, end] must pass the rule and the Theil–Sen slope of the windows after
+//   t0 must be significant (95 %) with the same sign. Span [t0, end of the
+//   last window]; a knee at the first centre is a plain line, spanning from
+//   the first window's start.
 //   Value: dB of loudness, semitones of F0 median, percent of the
 //   articulation rate at t0. Windows of a timbre shift are left out.
 // - timbre-shift: speech segments (between pauses) whose timbre model
