@@ -55,6 +55,35 @@ double typicalMismatch(const AcousticModel& model, const ForcedAlignment& path, 
     return gaps.back().first;
 }
 
+// The median score of the words said (0 for none).
+double medianWordScore(const std::vector<WordEvidence>& words) {
+    std::vector<double> scores;
+    for (const WordEvidence& w : words)
+        if (w.spoken) scores.push_back(w.score);
+    if (scores.empty()) return 0.0;
+    std::nth_element(scores.begin(), scores.begin() + static_cast<std::ptrdiff_t>(scores.size() / 2), scores.end());
+    return scores[scores.size() / 2];
+}
+
+// Which of `candidates` (script words) an unscripted stretch repeats: the one
+// whose phones, forced through the stretch, score best against the free
+// phone loop (pronunciation_score.hpp), if that is at least `limit`; -1 for none.
+int repeatedWord(const AcousticModel& model, const std::vector<float>& contextFree,
+                 const std::vector<ScriptWord>& script, const std::vector<int>& candidates, std::size_t start,
+                 std::size_t end, double limit, const WordEvidenceParams& params) {
+    int best = -1;
+    double bestScore = limit;
+    for (int k : candidates)
+        for (const PhoneSequence& phones : script[static_cast<std::size_t>(k)].pronunciations) {
+            const double score = scorePhones(model, contextFree, phones, start, end, params.insertionPenalty).score;
+            if (score >= bestScore) {
+                bestScore = score;
+                best = k;
+            }
+        }
+    return best;
+}
+
 double roundMs(double s) { return std::round(s * 1000.0) / 1000.0; }
 
 std::string quoteWords(const std::vector<std::string>& words) {
@@ -77,6 +106,8 @@ void WordEvidenceParams::validate() const {
         throw ParamError("WordEvidenceParams.insertionPenalty", "must be a finite number >= 0");
     if (!(minExtraSeconds >= 0) || !std::isfinite(minExtraSeconds))
         throw ParamError("WordEvidenceParams.minExtraSeconds", "must be a finite number >= 0");
+    if (!(repeatMargin >= 0) || !std::isfinite(repeatMargin))
+        throw ParamError("WordEvidenceParams.repeatMargin", "must be a finite number >= 0 (nats/frame)");
     if (!(referenceMismatch > 0) || !std::isfinite(referenceMismatch))
         throw ParamError("WordEvidenceParams.referenceMismatch", "must be > 0");
     if (!(confidenceScale > 0) || !std::isfinite(confidenceScale))
@@ -156,6 +187,11 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
     const auto& segs = path.path;
     int lastSpokenWord = -1;
     std::size_t lastSpeechEnd = 0;
+    struct ExtraStretch {
+        std::size_t startFrame, endFrame;
+        int lastSpoken;  // the script word said last before it (-1: none)
+    };
+    std::vector<ExtraStretch> extras;
     bool endedInsideWord = false;
     while (i < segs.size()) {
         const PathSegment& s = segs[i];
@@ -164,25 +200,8 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
             continue;
         }
         if (s.kind == PathSegment::Kind::Extra) {
-            const double len = static_cast<double>(s.endFrame - s.startFrame) * hop;
-            if (len >= params.minExtraSeconds) {
-                CoverageFinding f;
-                f.kind = CoverageFinding::Kind::Extra;
-                f.startS = timeOf(s.startFrame);
-                f.endS = timeOf(s.endFrame);
-                if (lastSpokenWord >= 0) f.words.push_back(script[static_cast<std::size_t>(lastSpokenWord)].label);
-                const std::size_t nextWord = lastSpokenWord + 1 < static_cast<int>(script.size()) ? static_cast<std::size_t>(lastSpokenWord + 1) : script.size();
-                if (nextWord < script.size()) f.words.push_back(script[nextWord].label);
-                const PhoneScore heard = scorePhone(*model, contextFree, model->silencePhone(), s.startFrame, s.endFrame,
-                                                    params.insertionPenalty);
-                std::string phones;
-                for (int p : heard.heard)
-                    if (p != model->silencePhone()) phones += (phones.empty() ? "" : " ") + model->basePhoneName(p);
-                f.detail = "speech that is not in the script at " + secondsText(f.startS) + "–" + secondsText(f.endS) +
-                           (f.words.empty() ? "" : ", near " + quoteWords(f.words)) +
-                           (phones.empty() ? "" : " (sounds like " + phones + ")");
-                out.coverage.push_back(std::move(f));
-            }
+            // Judged once every word's first visit is scored (a repeat is measured against them).
+            extras.push_back({s.startFrame, s.endFrame, lastSpokenWord});
             lastSpeechEnd = s.endFrame;
             ++i;
             continue;
@@ -235,6 +254,44 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
         endedInsideWord = !complete;
         i = j;
     }
+    // Unscripted stretches: a repetition of the word said before it, or of the next word when that
+    // word is said after it; else speech that is not in the script.
+    const double repeatLimit = medianWordScore(out.words) - params.repeatMargin;
+    for (const ExtraStretch& x : extras) {
+        if (static_cast<double>(x.endFrame - x.startFrame) * hop < params.minExtraSeconds) continue;
+        CoverageFinding f;
+        f.startS = timeOf(x.startFrame);
+        f.endS = timeOf(x.endFrame);
+        std::vector<int> candidates;
+        if (x.lastSpoken >= 0) candidates.push_back(x.lastSpoken);
+        if (x.lastSpoken + 1 < static_cast<int>(script.size()) && out.words[static_cast<std::size_t>(x.lastSpoken + 1)].spoken)
+            candidates.push_back(x.lastSpoken + 1);
+        const int repeated =
+            repeatedWord(*model, contextFree, script, candidates, x.startFrame, x.endFrame, repeatLimit, params);
+        if (repeated >= 0) {
+            WordEvidence& w = out.words[static_cast<std::size_t>(repeated)];
+            if (++w.occurrences > 2) continue;  // one finding per word, as for repeats on the path
+            f.kind = CoverageFinding::Kind::Repeated;
+            f.words = {w.label};
+            f.detail = "'" + w.label + "' said again at " + secondsText(f.startS);
+            out.coverage.push_back(std::move(f));
+            continue;
+        }
+        f.kind = CoverageFinding::Kind::Extra;
+        if (x.lastSpoken >= 0) f.words.push_back(script[static_cast<std::size_t>(x.lastSpoken)].label);
+        if (x.lastSpoken + 1 < static_cast<int>(script.size()))
+            f.words.push_back(script[static_cast<std::size_t>(x.lastSpoken + 1)].label);
+        const PhoneScore heard =
+            scorePhone(*model, contextFree, model->silencePhone(), x.startFrame, x.endFrame, params.insertionPenalty);
+        std::string phones;
+        for (int p : heard.heard)
+            if (p != model->silencePhone()) phones += (phones.empty() ? "" : " ") + model->basePhoneName(p);
+        f.detail = "speech that is not in the script at " + secondsText(f.startS) + "–" + secondsText(f.endS) +
+                   (f.words.empty() ? "" : ", near " + quoteWords(f.words)) +
+                   (phones.empty() ? "" : " (sounds like " + phones + ")");
+        out.coverage.push_back(std::move(f));
+    }
+
     // Words never said: trailing ones are an early end, others are skipped.
     std::size_t trailing = script.size();
     while (trailing > 0 && !out.words[trailing - 1].spoken) --trailing;

@@ -107,7 +107,7 @@ TEST_P(WordChecksPerVoice, PlantedFaultsAreNamedByTheirWordAndCleanTakesStayQuie
         {"swap", {"tickets", {"substituted-word", "pronunciation", "extra-speech"}}},
         {"vowel", {"bread", {"substituted-word", "pronunciation", "extra-speech"}}},
         {"skip", {"all", {"skipped-word"}}},
-        {"repeat", {"open", {"repeated-word", "extra-speech"}}},
+        {"repeat", {"open", {"repeated-word"}}},
         {"cut", {"car", {"early-end"}}},
     };
     for (const auto& [id, want] : expected) {

@@ -29,4 +29,12 @@ struct PhoneScore {
 PhoneScore scorePhone(const AcousticModel& model, const std::vector<float>& contextFree, int expected,
                       std::size_t start, std::size_t end, double insertionPenalty = 3.0);
 
+// The same for a sequence of phones (a word's) forced through [start, end)
+// one after the other, against the free loop given back one insertion
+// penalty per expected phone. A stretch too short for the sequence scores
+// -infinity.
+PhoneScore scorePhones(const AcousticModel& model, const std::vector<float>& contextFree,
+                       const std::vector<int>& expected, std::size_t start, std::size_t end,
+                       double insertionPenalty = 3.0);
+
 }  // namespace earmark
