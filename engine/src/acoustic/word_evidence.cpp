@@ -4,6 +4,8 @@
 #include "earmark/acoustic/pronunciation_score.hpp"
 #include "earmark/acoustic/senone_scorer.hpp"
 #include "earmark/core/error.hpp"
+#include "earmark/level/energy.hpp"
+#include "earmark/prosody/speech_activity.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -54,6 +56,37 @@ double typicalMismatch(const AcousticModel& model, const ForcedAlignment& path, 
         if ((seen += frames) * 2 >= total) return gap;
     return gaps.back().first;
 }
+
+// Speech that stops less than this before the take's end was cut off, not finished.
+constexpr double kCutMarginSeconds = 0.05;
+
+// Where the take has speech by its energy (25 ms frames every 10 ms; a frame
+// is speech within the silence threshold of speech_activity.hpp, before any
+// bridging), independent of the acoustic model.
+class SpeechHeard {
+public:
+    explicit SpeechHeard(const Signal& take) {
+        EnergyParams params;
+        params.hopSeconds = 0.01;
+        activity_ = detectSpeech(analyseEnergy(take, params), take.durationSeconds());
+    }
+    // The first and last speech frame's edges within [a, b), or nothing.
+    std::optional<std::pair<double, double>> speechWithin(double a, double b) const {
+        const double hop = activity_.hopSeconds;
+        std::optional<std::pair<double, double>> out;
+        if (!(hop > 0)) return out;
+        for (std::size_t i = 0; i < activity_.rawSpeech.size(); ++i) {
+            const double centre = (static_cast<double>(i) + 0.5) * hop;
+            if (centre < a || centre >= b || !activity_.rawSpeech[i]) continue;
+            if (!out) out = std::pair{centre - 0.5 * hop, centre + 0.5 * hop};
+            else out->second = centre + 0.5 * hop;
+        }
+        return out;
+    }
+
+private:
+    SpeechActivity activity_;
+};
 
 // The median score of the words said (0 for none).
 double medianWordScore(const std::vector<WordEvidence>& words) {
@@ -292,11 +325,63 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
         out.coverage.push_back(std::move(f));
     }
 
+    // A word the path left out is skipped only where the take is silent. Where its place holds
+    // speech (that no unscripted stretch took), the word was said as something its phones do not
+    // match: a guessed name is placed there (its phones are only a guess), another word is said as
+    // something else.
+    const SpeechHeard heard(take);
+    const auto extraWithin = [&](double a, double b) {
+        return std::any_of(out.coverage.begin(), out.coverage.end(), [&](const CoverageFinding& c) {
+            return c.kind == CoverageFinding::Kind::Extra && c.startS < b && a < c.endS;
+        });
+    };
+    for (std::size_t k = 0; k < script.size(); ++k) {
+        WordEvidence& w = out.words[k];
+        if (w.spoken) continue;
+        double from = 0, to = takeEnd;
+        for (std::size_t m = k; m-- > 0;)
+            if (out.words[m].spoken) {
+                from = out.words[m].endS;
+                break;
+            }
+        bool later = false;
+        for (std::size_t m = k + 1; m < script.size() && !later; ++m)
+            if (out.words[m].spoken) {
+                to = out.words[m].startS;
+                later = true;
+            }
+        if (!later) continue;  // trailing words: the early end below
+        const auto span = heard.speechWithin(from, to);
+        if (!span || span->second - span->first < params.minExtraSeconds || extraWithin(from, to)) continue;
+        const auto a = static_cast<std::size_t>(std::floor(span->first / hop));
+        const auto b = std::min(features.frames, static_cast<std::size_t>(std::ceil(span->second / hop)));
+        double score = -INFINITY;
+        for (const PhoneSequence& phones : script[k].pronunciations)
+            score = std::max(score, scorePhones(*model, contextFree, phones, a, b, params.insertionPenalty).score);
+        w.startS = timeOf(a);
+        w.endS = timeOf(b);
+        if (script[k].guessed) {
+            w.spoken = w.complete = true;
+            w.occurrences = 1;
+            w.score = std::isfinite(score) ? score : -params.confidenceScale;
+            w.confidence = std::clamp(1.0 + w.score / params.confidenceScale, 0.0, 1.0);
+            continue;
+        }
+        w.substituted = true;
+        CoverageFinding f;
+        f.kind = CoverageFinding::Kind::Substituted;
+        f.words = {w.label};
+        f.startS = w.startS;
+        f.endS = w.endS;
+        f.detail = "'" + w.label + "' said as something else at " + secondsText(f.startS);
+        out.coverage.push_back(std::move(f));
+    }
+
     // Words never said: trailing ones are an early end, others are skipped.
     std::size_t trailing = script.size();
     while (trailing > 0 && !out.words[trailing - 1].spoken) --trailing;
     for (std::size_t k = 0; k < trailing; ++k) {
-        if (out.words[k].spoken) continue;
+        if (out.words[k].spoken || out.words[k].substituted) continue;
         CoverageFinding f;
         f.kind = CoverageFinding::Kind::Skipped;
         f.words = {out.words[k].label};
@@ -311,7 +396,38 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
         f.detail = "'" + out.words[k].label + "' not said (expected at " + secondsText(at) + ")";
         out.coverage.push_back(std::move(f));
     }
-    if (trailing < script.size() || endedInsideWord) {
+    // An early end needs the speech to end there: where the take goes on speaking after the
+    // path's end, and falls silent before the take ends, the last words were said as something
+    // their phones do not match. (Speech running into the take's last frames is a cut.)
+    const double pathEnd = timeOf(lastSpeechEnd);
+    const auto after = heard.speechWithin(pathEnd, takeEnd);
+    const bool speechGoesOn = after && after->second - after->first >= params.minExtraSeconds &&
+                              after->second < takeEnd - kCutMarginSeconds && !extraWithin(pathEnd, takeEnd);
+    if (speechGoesOn && (trailing < script.size() || endedInsideWord)) {
+        if (endedInsideWord && lastSpokenWord >= 0) {
+            WordEvidence& w = out.words[static_cast<std::size_t>(lastSpokenWord)];
+            if (trailing == script.size() || script[static_cast<std::size_t>(lastSpokenWord)].guessed) {
+                w.complete = true;  // said to its end, only not as its phones go
+                if (trailing == script.size()) w.endS = roundMs(after->second);
+            }
+        }
+        std::vector<std::string> unsaid;
+        for (std::size_t k = trailing; k < script.size(); ++k) {
+            out.words[k].substituted = true;
+            out.words[k].startS = roundMs(after->first);
+            out.words[k].endS = roundMs(after->second);
+            unsaid.push_back(out.words[k].label);
+        }
+        if (!unsaid.empty()) {
+            CoverageFinding f;
+            f.kind = CoverageFinding::Kind::Substituted;
+            f.words = unsaid;
+            f.startS = roundMs(after->first);
+            f.endS = roundMs(after->second);
+            f.detail = quoteWords(unsaid) + " said as something else at " + secondsText(f.startS);
+            out.coverage.push_back(std::move(f));
+        }
+    } else if (trailing < script.size() || endedInsideWord) {
         CoverageFinding f;
         f.kind = CoverageFinding::Kind::EarlyEnd;
         std::vector<std::string> unsaid;
