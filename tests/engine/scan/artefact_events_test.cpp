@@ -41,7 +41,10 @@ TEST(ArtefactEvents, ThreeClicksAreThreeSuspectsInEveryOutput) {
     for (double t : kClickTimes) s.samples[static_cast<std::size_t>(t * kRate)] += 0.2f;
     const std::string wav = (dir.path() / "clicked.wav").string();
     writeWav(wav, s, WavEncoding::Float32);
-    const std::vector<ScanItem> items{{.index = 0, .id = "clicked", .audioPath = wav}};
+    ScanItem item;
+    item.id = "clicked";
+    item.audioPath = wav;
+    const std::vector<ScanItem> items{item};
 
     ScanSettings settings;
     settings.jobs = 1;
@@ -50,8 +53,11 @@ TEST(ArtefactEvents, ThreeClicksAreThreeSuspectsInEveryOutput) {
     const ScanRow& row = report.rows.front();
     expectThePlantedClicks(row.suspects, "scan");
     // Each reason says which of the three it is.
-    for (const auto& x : row.suspects)
-        if (x.kind == SuspectKind::Click) EXPECT_NE(x.reason.find(" of 3 in the take"), std::string::npos) << x.reason;
+    for (const auto& x : row.suspects) {
+        if (x.kind == SuspectKind::Click) {
+            EXPECT_NE(x.reason.find(" of 3 in the take"), std::string::npos) << x.reason;
+        }
+    }
     // Each click adds its own score.
     double clickScore = 0;
     for (const auto& x : row.suspects)
@@ -76,8 +82,13 @@ TEST(ArtefactEvents, ThreeClicksAreThreeSuspectsInEveryOutput) {
     ASSERT_EQ(takes.size(), 1u);
     std::vector<TakeSuspect> stored;
     for (const auto& x : session.suspects(takes[0].id))
-        if (x.name == "click")
-            stored.push_back({.kind = SuspectKind::Click, .startS = x.startSeconds, .endS = x.endSeconds});
+        if (x.name == "click") {
+            TakeSuspect click;
+            click.kind = SuspectKind::Click;
+            click.startS = x.startSeconds;
+            click.endS = x.endSeconds;
+            stored.push_back(click);
+        }
     expectThePlantedClicks(stored, "session");
 }
 
