@@ -33,7 +33,7 @@ SpanMeasures measureSpan(const ProsodyContext& context, double startS, double en
     m.energyMeanDb = detail::energyMeanDb(context.energy(), m.startS, m.endS);
     if (auto pause = context.activity().pauseCovering(m.startS, m.endS)) {
         m.pauseS = pause->seconds();
-    } else if (context.syllableSource() != SyllableSource::None) {
+    } else if (context.syllableSource() != SyllableSource::None && m.durationS >= kMinRateSpanSeconds) {
         m.syllablesPerS = context.syllablesIn(m.startS, m.endS) / m.durationS;
     }
     return m;

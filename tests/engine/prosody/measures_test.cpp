@@ -141,6 +141,9 @@ TEST(SpanMeasures, OneFunctionOneValue) {
     // "rising" has 2 syllables by the spelling rule: 2 / 0.5 s.
     EXPECT_NEAR(*span.syllablesPerS, 4.0, 1e-9);
     EXPECT_FALSE(span.pauseS.has_value());
+    // Inside the same word, a span shorter than a syllable has no rate.
+    EXPECT_FALSE(measureSpan(ctx, 0.6, 0.68).syllablesPerS.has_value());
+    EXPECT_TRUE(measureSpan(ctx, 0.6, 0.6 + kMinRateSpanSeconds).syllablesPerS.has_value());
 
     const auto pause = measureSpan(ctx, 1.5, 1.9);
     EXPECT_EQ(pause.wordCount, 0);

@@ -17,9 +17,14 @@ struct SpanMeasures {
     std::optional<double> f0RangeSt;     // 12·log2(max/min) over voiced frames
     std::optional<double> f0SlopeStPerS; // least-squares slope, semitones per second
     std::optional<double> energyMeanDb;  // 10·log10(mean power), dBFS
-    std::optional<double> syllablesPerS; // ProsodyContext::syllablesIn / duration
+    std::optional<double> syllablesPerS; // ProsodyContext::syllablesIn / duration; empty for spans
+                                         // shorter than kMinRateSpanSeconds
     std::optional<double> pauseS;        // length of the pause the span lies in (≥ 80 % inside it)
 };
+
+// A speaking rate over less than about one syllable's length says nothing
+// (a 80 ms span would read 0 or 12 syllables/s); common practice.
+inline constexpr double kMinRateSpanSeconds = 0.25;
 
 // Throws ParamError("measureSpan.endS") when endS <= startS after clamping to the take.
 SpanMeasures measureSpan(const ProsodyContext& context, double startS, double endS);
