@@ -129,6 +129,9 @@ void ForcedAlignmentParams::validate() const {
     check(earlyEndPenalty, "earlyEndPenalty");
     check(silencePenalty, "silencePenalty");
     if (!(beam > 0) || !std::isfinite(beam)) throw ParamError("ForcedAlignmentParams.beam", "must be > 0");
+    for (float v : pauseFramePenalty)
+        if (!(v >= 0) || !std::isfinite(v))
+            throw ParamError("ForcedAlignmentParams.pauseFramePenalty", "must hold finite numbers >= 0");
 }
 
 ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& features,
@@ -148,6 +151,9 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
     else if (contextFree.size() != T * ciPerFrame)
         throw ParamError("ForcedAlignmentParams.contextFreeGiven", "the given context-free scores do not match the features");
 
+    if (!params.pauseFramePenalty.empty() && params.pauseFramePenalty.size() != T)
+        throw ParamError("ForcedAlignmentParams.pauseFramePenalty", "must hold one value per feature frame");
+    const bool gatedPauses = !params.pauseFramePenalty.empty();
     std::vector<float> score(nUnits * S, kNone);
     std::vector<int> hist(nUnits * S, -1);
     std::vector<float> entry(nUnits, kNone);
@@ -241,7 +247,10 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
                 }
                 float emit;
                 if (unit.kind == PathSegment::Kind::Extra) emit = garbage;
-                else if (unit.kind == PathSegment::Kind::Pause || unit.model < model.basePhoneCount())
+                else if (unit.kind == PathSegment::Kind::Pause)
+                    emit = ci[static_cast<std::size_t>(unit.model * S + j)] -
+                           (gatedPauses ? params.pauseFramePenalty[t] : 0.0f);
+                else if (unit.model < model.basePhoneCount())
                     emit = ci[static_cast<std::size_t>(unit.model * S + j)];
                 else emit = scorer.score(model.states(unit.model)[static_cast<std::size_t>(j)]);
                 fresh[static_cast<std::size_t>(j)] = bestIn + emit;

@@ -68,7 +68,8 @@ public:
     explicit SpeechHeard(const Signal& take) {
         EnergyParams params;
         params.hopSeconds = 0.01;
-        activity_ = detectSpeech(analyseEnergy(take, params), take.durationSeconds());
+        energy_ = analyseEnergy(take, params);
+        activity_ = detectSpeech(energy_, take.durationSeconds());
     }
     // The first and last speech frame's edges within [a, b), or nothing.
     std::optional<std::pair<double, double>> speechWithin(double a, double b) const {
@@ -84,7 +85,26 @@ public:
         return out;
     }
 
+    // Per feature frame: the pause penalty (WordEvidenceParams::loudPausePenalty) for the
+    // energy frame nearest the feature frame's centre.
+    std::vector<float> pausePenalties(const ModelFeatures& features, double fullPenalty) const {
+        std::vector<float> out(features.frames, 0.0f);
+        const double hop = activity_.hopSeconds;
+        if (!(hop > 0) || energy_.db.empty() || !activity_.hasSpeech()) return out;
+        for (std::size_t i = 0; i < features.frames; ++i) {
+            const auto e = std::min(energy_.db.size() - 1,
+                                    static_cast<std::size_t>(std::lround(features.frameCentre(i) / hop)));
+            const double below = activity_.speechLevelDb - energy_.db[e];
+            const double share = std::clamp((kQuietPauseDb - below) / (kQuietPauseDb - kLoudPauseDb), 0.0, 1.0);
+            out[i] = static_cast<float>(share * fullPenalty);
+        }
+        return out;
+    }
+
 private:
+    static constexpr double kLoudPauseDb = 4.0;   // below the speech level: full penalty
+    static constexpr double kQuietPauseDb = 8.0;  // below the speech level: none
+    EnergyTrack energy_;
     SpeechActivity activity_;
 };
 
@@ -143,6 +163,8 @@ void WordEvidenceParams::validate() const {
         throw ParamError("WordEvidenceParams.repeatMargin", "must be a finite number >= 0 (nats/frame)");
     if (!(referenceMismatch > 0) || !std::isfinite(referenceMismatch))
         throw ParamError("WordEvidenceParams.referenceMismatch", "must be > 0");
+    if (!(loudPausePenalty >= 0) || !std::isfinite(loudPausePenalty))
+        throw ParamError("WordEvidenceParams.loudPausePenalty", "must be a finite number >= 0 (nats/frame)");
     if (!(confidenceScale > 0) || !std::isfinite(confidenceScale))
         throw ParamError("WordEvidenceParams.confidenceScale", "must be > 0");
     if (voice.empty()) throw ParamError("WordEvidenceParams.voice", "is empty");
@@ -184,10 +206,13 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
     // model where it says the script. Pass 2 lets the garbage unit win only
     // where the take fits worse than that by the garbage penalty, so a voice
     // the model fits loosely (a formant synthesiser) is not read as unscripted speech.
+    const SpeechHeard heard(take);
     ForcedAlignmentParams plain = params.search;
     plain.coverage = false;
+    plain.pauseFramePenalty = heard.pausePenalties(features, params.loudPausePenalty);
     const ForcedAlignment first = forceAlign(*model, features, script, contextFree, plain, progress.sub(0.1, 0.45));
-    ForcedAlignmentParams search = params.search;
+    ForcedAlignmentParams search = plain;
+    search.coverage = params.search.coverage;
     search.contextFreeGiven = true;  // pass 1 filled contextFree from the same features
     const double mismatch = typicalMismatch(*model, first, contextFree);
     search.garbageFramePenalty += mismatch;
@@ -329,7 +354,6 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
     // speech (that no unscripted stretch took), the word was said as something its phones do not
     // match: a guessed name is placed there (its phones are only a guess), another word is said as
     // something else.
-    const SpeechHeard heard(take);
     const auto extraWithin = [&](double a, double b) {
         return std::any_of(out.coverage.begin(), out.coverage.end(), [&](const CoverageFinding& c) {
             return c.kind == CoverageFinding::Kind::Extra && c.startS < b && a < c.endS;

@@ -9,6 +9,8 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+
 namespace earmark {
 namespace {
 
@@ -53,6 +55,41 @@ TEST(ForcedAlignment, GivenScoresOfTheWrongSizeAreRefused) {
     ForcedAlignmentParams reuse;
     reuse.contextFreeGiven = true;
     EXPECT_THROW(forceAlign(*s.model, s.features, s.words, contextFree, reuse), ParamError);
+}
+
+// Pause penalties per frame: none changes nothing; a prohibitive one leaves no
+// pause on the path (the take's silences go to the words' phones); a vector
+// of the wrong length or with a negative value is refused.
+TEST(ForcedAlignment, PausePenaltiesPerFrame) {
+    const CardsTake s;
+    std::vector<float> contextFree;
+    const ForcedAlignment plain = forceAlign(*s.model, s.features, s.words, contextFree);
+    const auto pauses = [](const ForcedAlignment& a) {
+        return std::count_if(a.path.begin(), a.path.end(),
+                             [](const PathSegment& p) { return p.kind == PathSegment::Kind::Pause; });
+    };
+    ASSERT_TRUE(plain.reachedEnd);
+    ASSERT_GT(pauses(plain), 0);  // the recording has silence before and after the words
+
+    ForcedAlignmentParams zero;
+    zero.pauseFramePenalty.assign(s.features.frames, 0.0f);
+    const ForcedAlignment same = forceAlign(*s.model, s.features, s.words, contextFree, zero);
+    EXPECT_EQ(same.logLikelihood, plain.logLikelihood);
+    EXPECT_EQ(same.path.size(), plain.path.size());
+
+    ForcedAlignmentParams ruledOut;
+    ruledOut.coverage = false;
+    ruledOut.pauseFramePenalty.assign(s.features.frames, 1000.0f);
+    const ForcedAlignment none = forceAlign(*s.model, s.features, s.words, contextFree, ruledOut);
+    ASSERT_TRUE(none.reachedEnd);
+    EXPECT_EQ(pauses(none), 0);
+
+    ForcedAlignmentParams shortVector;
+    shortVector.pauseFramePenalty.assign(s.features.frames - 1, 0.0f);
+    EXPECT_THROW(forceAlign(*s.model, s.features, s.words, contextFree, shortVector), ParamError);
+    ForcedAlignmentParams negative;
+    negative.pauseFramePenalty.assign(s.features.frames, -1.0f);
+    EXPECT_THROW(forceAlign(*s.model, s.features, s.words, contextFree, negative), ParamError);
 }
 
 }  // namespace

@@ -40,6 +40,10 @@ struct ForcedAlignmentParams {
     // true: `contextFree` already holds contextFreeScores(model, features) of
     // the same features (from an earlier pass); they are reused, not recomputed.
     bool contextFreeGiven = false;
+    // Nats taken from a pause's (silence's) score at each frame it covers; empty, or one value per
+    // feature frame (ParamError otherwise). Lets the caller rule out pauses over loud speech,
+    // which the silence model can fit better than a formant synthesiser's vowel.
+    std::vector<float> pauseFramePenalty;
     // Throws ParamError("ForcedAlignmentParams.<field>") for negative values or a beam <= 0.
     void validate() const;
 };

@@ -44,6 +44,13 @@ struct WordEvidenceParams {
     // voices 2.3–3.8; 1.5 keeps festival's planted faults found (15 of 15).
     double referenceMismatch = 1.5;     // nats/frame
 
+    // A pause (silence between words) over a frame within 4 dB of the take's speech level (a loud
+    // vowel) costs this many nats per frame, falling linearly to nothing 8 dB below it, where
+    // nasals, voiced consonants and a phrase's fading end lie: the silence model can fit a formant
+    // synthesiser's vowel better than the vowel's own model, and a pause over a loud vowel moved
+    // the next word's start up to 0.17 s late (espeak-ng "two old").
+    double loudPausePenalty = 100.0;    // nats/frame
+
     // Word confidence = clamp(1 + score / confidenceScale, 0, 1): a word whose
     // phones match as well as any free phone sequence gets 1.
     double confidenceScale = 4.0;
