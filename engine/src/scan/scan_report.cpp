@@ -329,6 +329,7 @@ WordScoreCalibration calibrationFromJson(const Json& j) {
     c.medianScore = j.at("median_score").get<double>();
     c.mad = j.at("mad").get<double>();
     c.words = j.at("words").get<std::size_t>();
+    c.typicalWordSeconds = j.value("typical_word_s", 0.0);  // absent in reports written before it
     c.supplied = j.value("supplied", false);
     return c;
 }
@@ -407,13 +408,16 @@ namespace {
 // Pronunciation against the set (or the supplied calibration).
 void applyPronunciation(ScanReport& report, const ScanRules& rules,
                         const std::optional<WordScoreCalibration>& supplied) {
-    std::vector<double> scores;
+    std::vector<double> scores, seconds;
     for (const auto& row : report.rows)
         if (!row.failed && row.words.scoresKnown)
-            for (const auto& w : row.words.words) scores.push_back(w.score);
+            for (const auto& w : row.words.words) {
+                scores.push_back(w.score);
+                seconds.push_back(w.endS - w.startS);
+            }
     report.wordCalibration = supplied;
     if (report.wordCalibration) report.wordCalibration->supplied = true;
-    else report.wordCalibration = calibrateWordScores(std::move(scores), rules.pronunciation);
+    else report.wordCalibration = calibrateWordScores(std::move(scores), rules.pronunciation, std::move(seconds));
     for (auto& row : report.rows) {
         if (row.failed) continue;
         if (!row.words.scoresKnown) {
@@ -516,7 +520,7 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
     if (report.wordCalibration) {
         const auto& c = *report.wordCalibration;
         doc["word_score_calibration"] = {{"median_score", c.medianScore}, {"mad", c.mad}, {"words", c.words},
-                                         {"supplied", c.supplied}, {"limit", c.limit(rules.pronunciation)}};
+                                         {"typical_word_s", c.typicalWordSeconds}, {"supplied", c.supplied}, {"limit", c.limit(rules.pronunciation)}};
     } else {
         doc["word_score_calibration"] = nullptr;
     }

@@ -129,7 +129,17 @@ double WordScoreCalibration::limit(const PronunciationRule& rule) const {
     return medianScore - rule.maxMadsBelow * std::max(mad, rule.minMad);
 }
 
-std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule) {
+double WordScoreCalibration::shortWordAllowance(double seconds) const {
+    if (!(typicalWordSeconds > 0) || !(seconds > 0) || seconds >= typicalWordSeconds) return 1.0;
+    return std::sqrt(typicalWordSeconds / seconds);
+}
+
+double WordScoreCalibration::limitFor(const PronunciationRule& rule, double seconds) const {
+    return medianScore - rule.maxMadsBelow * std::max(mad, rule.minMad) * shortWordAllowance(seconds);
+}
+
+std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule,
+                                                        std::vector<double> seconds) {
     std::erase_if(scores, [](double s) { return !std::isfinite(s); });
     if (scores.size() < static_cast<std::size_t>(std::max(1, rule.minWords))) return std::nullopt;
     WordScoreCalibration c;
@@ -137,24 +147,42 @@ std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scor
     c.medianScore = median(scores);
     for (double& s : scores) s = std::fabs(s - c.medianScore);
     c.mad = median(std::move(scores));
+    std::erase_if(seconds, [](double s) { return !(s > 0) || !std::isfinite(s); });
+    if (!seconds.empty()) c.typicalWordSeconds = median(std::move(seconds));
     return c;
 }
 
 std::optional<TakeSuspect> pronunciationSuspect(const TakeWords& words, const WordScoreCalibration& calibration,
                                                 const ScanRules& rules) {
     if (!rules.pronunciation.enabled) return std::nullopt;
-    const double limit = calibration.limit(rules.pronunciation);
-    const ScannedWord* worst = words.lowest();
-    if (!worst || !(worst->score < limit)) return std::nullopt;
+    const auto secondsOf = [](const ScannedWord& w) { return w.endS - w.startS; };
+    // How far below its own limit a word lies, in units of that limit's distance from the median.
+    const auto shortfall = [&](const ScannedWord& w) {
+        const double allowed = calibration.medianScore - calibration.limitFor(rules.pronunciation, secondsOf(w));
+        return (calibration.medianScore - w.score) / allowed;
+    };
+    const ScannedWord* worst = nullptr;
+    std::vector<std::string> below;
+    for (const auto& w : words.words) {
+        if (!(w.score < calibration.limitFor(rules.pronunciation, secondsOf(w)))) continue;
+        below.push_back(w.label);
+        if (!worst || shortfall(w) > shortfall(*worst)) worst = &w;
+    }
+    if (!worst) return std::nullopt;
     std::vector<std::string> others;
-    for (const auto& w : words.words)
-        if (&w != worst && w.score < limit) others.push_back(w.label);
+    for (const auto& label : below)
+        if (label != worst->label) others.push_back(label);
+    const double limit = calibration.limitFor(rules.pronunciation, secondsOf(*worst));
+    const double allowance = calibration.shortWordAllowance(secondsOf(*worst));
     std::string reason = "'" + worst->label + "' scores " + num(worst->score) + " nats/frame at " + num(worst->startS) +
                          "–" + num(worst->endS) + " s" +
                          (worst->offPhones.empty() ? "" : " (" + worst->offPhones + ")") + ", below the set's " +
                          num(limit) + " (median " + num(calibration.medianScore) + " − " +
                          num(rules.pronunciation.maxMadsBelow, 1) + " × MAD " +
                          num(std::max(calibration.mad, rules.pronunciation.minMad)) +
+                         (allowance > 1.0 ? " × " + num(allowance) + " for a word shorter than the set's typical " +
+                                                num(calibration.typicalWordSeconds) + " s"
+                                          : "") +
                          (calibration.supplied ? ", supplied" : "") + ")";
     if (!others.empty()) reason += ", also below: " + quoted(others);
     return suspect(SuspectKind::Pronunciation, worst->score, limit, "nats/frame", worst->startS, worst->endS, reason);

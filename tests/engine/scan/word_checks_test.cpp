@@ -162,6 +162,45 @@ TEST(WordScoreCalibration, MedianAndMadOfTheSet) {
     EXPECT_NEAR(flat->limit(rule), -0.5 - rule.maxMadsBelow * rule.minMad, 1e-12);
 }
 
+// A word's score is a mean over its frames; a mean of n frames spreads as
+// 1/sqrt(n) (the standard error of a mean), so a word half as long as the
+// set's median word is held to sqrt(2) times the distance from the median.
+TEST(WordScoreCalibration, ShortWordsAreHeldToAWiderLimit) {
+    PronunciationRule rule;
+    rule.minWords = 5;
+    rule.maxMadsBelow = 8;
+    const auto c = calibrateWordScores({-0.2, -3.0, -0.1, -0.4, -0.3}, rule, {0.2, 0.4, 0.3, 0.3, 0.5});
+    ASSERT_TRUE(c.has_value());
+    EXPECT_DOUBLE_EQ(c->typicalWordSeconds, 0.3);
+    EXPECT_NEAR(c->limitFor(rule, 0.15), -0.3 - 8 * 0.1 * std::sqrt(2.0), 1e-12);
+    EXPECT_DOUBLE_EQ(c->limitFor(rule, 0.3), c->limit(rule));
+    EXPECT_DOUBLE_EQ(c->limitFor(rule, 0.9), c->limit(rule));  // longer words are not held tighter
+    // −1.3 is below the set's limit (−1.1) but not below a 0.15 s word's (−1.43).
+    ScanRules rules;
+    rules.pronunciation = rule;
+    TakeWords take;
+    take.method = "model";
+    take.scoresKnown = true;
+    take.words = {{"the", 1.0, 1.15, -1.3, ""}, {"harbour", 1.15, 1.55, -0.3, ""}};
+    EXPECT_FALSE(pronunciationSuspect(take, *c, rules).has_value());
+    take.words.front().endS = 1.3;  // the same score over 0.3 s is off
+    const auto s = pronunciationSuspect(take, *c, rules);
+    ASSERT_TRUE(s.has_value());
+    EXPECT_NE(s->reason.find("'the'"), std::string::npos) << s->reason;
+    // Of two words below their limits, the one furthest below (relative to its limit) is named.
+    // 'a' (0.075 s) scores lowest, −2.0 against its −1.9: 1.06 times its allowed distance;
+    // 'harbour' −1.2 against −1.1: 1.125 times.
+    take.words = {{"a", 1.0, 1.075, -2.0, ""}, {"harbour", 1.1, 1.5, -1.2, ""}};
+    const auto t = pronunciationSuspect(take, *c, rules);
+    ASSERT_TRUE(t.has_value());
+    EXPECT_EQ(t->reason.rfind("pronunciation: 'harbour'", 0), 0u) << t->reason;
+    EXPECT_NE(t->reason.find("also below: 'a'"), std::string::npos) << t->reason;
+    // Without known durations (a calibration from an older report) every word keeps the set's limit.
+    WordScoreCalibration old = *c;
+    old.typicalWordSeconds = 0;
+    EXPECT_DOUBLE_EQ(old.limitFor(rule, 0.05), old.limit(rule));
+}
+
 // The pronunciation limit follows the set: a tighter k flags more words,
 // and the suspect names the word, its time and the phones most off.
 TEST(WordScoreCalibration, PronunciationSuspectNamesTheWordAndFollowsK) {

@@ -10,7 +10,10 @@
 //     limit = median − k × max(MAD, minMad)
 // of all word scores of the set (k = rules.pronunciation.maxMadsBelow). The
 // median absolute deviation is a robust spread (Hampel 1974, JASA 69:383–393);
-// it is used unscaled. A scan sharded with --shard calibrates on the takes
+// it is used unscaled. A word's score is a mean over its frames, and a mean of
+// n frames spreads as 1/√n (standard error of a mean): a word shorter than the
+// set's median word is held to k × spread × √(typical / its seconds); longer
+// words keep the set's limit. A scan sharded with --shard calibrates on the takes
 // of its own shard unless a calibration is supplied (docs/scan.md).
 //
 // Thread-safety: pure functions.
@@ -61,18 +64,25 @@ struct WordScoreCalibration {
     double medianScore = 0;     // nats/frame
     double mad = 0;             // median absolute deviation, nats/frame (before the floor)
     std::size_t words = 0;      // scores it was made from
+    double typicalWordSeconds = 0;  // median duration of those words (0: unknown, no allowance for short words)
     bool supplied = false;      // given by the caller rather than measured on this set
 
     // median − maxMadsBelow × max(mad, minMad)
     double limit(const PronunciationRule& rule) const;
+    // The limit for a word lasting `seconds`: lower for words shorter than the typical word (above).
+    double limitFor(const PronunciationRule& rule, double seconds) const;
+    // √(typical / seconds) for a shorter word, else 1.
+    double shortWordAllowance(double seconds) const;
 };
 
-// Median and MAD of `scores`; nullopt for fewer than rule.minWords scores.
-std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule);
+// Median and MAD of `scores`, median of `seconds` (the words' durations, same
+// order; may be empty); nullopt for fewer than rule.minWords scores.
+std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule,
+                                                        std::vector<double> seconds = {});
 
-// The pronunciation suspect of one take: its lowest-scoring word when below
-// the calibration's limit, naming the word, its time, the phones most off
-// and the other words below the limit. nullopt otherwise.
+// The pronunciation suspect of one take: the word furthest below its limit
+// (limitFor), naming the word, its time, the phones most off and the other
+// words below their limits. nullopt when no word is below.
 std::optional<TakeSuspect> pronunciationSuspect(const TakeWords& words, const WordScoreCalibration& calibration,
                                                 const ScanRules& rules);
 
