@@ -3,6 +3,8 @@
 #include "earmark/core/error.hpp"
 #include "earmark/dsp/fft.hpp"
 #include "earmark/dsp/resample.hpp"
+#include "earmark/level/energy.hpp"
+#include "earmark/prosody/speech_activity.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -46,6 +48,25 @@ std::vector<MelFilter> melFilters(const ModelFrontEnd& fe) {
         out.push_back(std::move(f));
     }
     return out;
+}
+
+// Silence kept on either side of the speech span in the cepstral mean: about
+// what an utterance the model was trained on holds (common practice).
+constexpr double kMeanMarginSeconds = 0.25;
+
+// The frames [first, last) whose cepstra make the mean: those starting within the speech
+// span widened by kMeanMarginSeconds; every frame when the take has no speech.
+std::pair<std::size_t, std::size_t> meanFrames(const Signal& take, const ModelFrontEnd& fe, std::size_t frames) {
+    EnergyParams params;
+    params.hopSeconds = 0.01;
+    const SpeechActivity speech = detectSpeech(analyseEnergy(take, params), take.durationSeconds());
+    if (!speech.hasSpeech()) return {0, frames};
+    const double hop = 1.0 / fe.framesPerSecond;
+    const double from = std::max(0.0, *speech.speechStartS - kMeanMarginSeconds - fe.windowSeconds);
+    const double to = *speech.speechEndS + kMeanMarginSeconds;
+    const auto first = std::min(frames - 1, static_cast<std::size_t>(std::floor(from / hop)));
+    const auto last = std::clamp(static_cast<std::size_t>(std::ceil(to / hop)), first + 1, frames);
+    return {first, last};
 }
 
 }  // namespace
@@ -136,9 +157,10 @@ ModelFeatures computeModelFeatures(const Signal& take, const ModelFrontEnd& fe, 
     const std::size_t nc = static_cast<std::size_t>(fe.cepstra);
     std::vector<double> mean(nc, 0.0);
     if (fe.batchCmn) {
-        for (std::size_t t = 0; t < frames; ++t)
+        const auto [first, last] = meanFrames(*source, fe, frames);
+        for (std::size_t t = first; t < last; ++t)
             for (std::size_t i = 0; i < nc; ++i) mean[i] += cep[t * nc + i];
-        for (double& m : mean) m /= static_cast<double>(frames);
+        for (double& m : mean) m /= static_cast<double>(last - first);
     }
     auto c = [&](std::ptrdiff_t t, std::size_t i) {
         t = std::clamp<std::ptrdiff_t>(t, 0, static_cast<std::ptrdiff_t>(frames) - 1);

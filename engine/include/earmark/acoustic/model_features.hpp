@@ -8,8 +8,12 @@
 // [i·hop, i·hop + window)), Hamming window; power spectrum of `fftSize`
 // points; triangular mel filters (mel = 2595·log10(1 + f/700)) between
 // lowerHz and upperHz, edges rounded to FFT bins, unit area; natural log;
-// orthonormal DCT-II; sinusoidal lifter 1 + L/2·sin(πi/L). Then the take's
-// mean cepstrum is subtracted, and each frame becomes
+// orthonormal DCT-II; sinusoidal lifter 1 + L/2·sin(πi/L). Then the mean
+// cepstrum is subtracted — the mean over the take's speech span (by its
+// energy, prosody/speech_activity.hpp) widened by 0.25 s each side, so that
+// long padding silence does not pull the mean away from the voice (2 s of
+// leading silence in a 5.7 s take put a demo sentence's words out of
+// place); the whole take when it has no speech — and each frame becomes
 // [c(t), c(t+2) − c(t−2), (c(t+3) − c(t−1)) − (c(t+1) − c(t−3))] with the
 // first and last frames repeated past the ends.
 // Checked against the recogniser's own front-end library (libsphinxbase)
