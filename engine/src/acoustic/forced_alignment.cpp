@@ -6,6 +6,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <memory>
 
 namespace earmark {
 namespace {
@@ -30,6 +31,26 @@ struct Record {
     int unit;
     std::size_t startFrame;
     float startScore;
+};
+
+// Back-trace records in fixed blocks: growing never copies what is kept
+// (one vector's reallocations cost more than the records on long takes).
+class RecordStore {
+public:
+    int add(const Record& r) {
+        if ((size_ & kMask) == 0) blocks_.push_back(std::make_unique<Record[]>(kBlock));
+        blocks_.back()[size_ & kMask] = r;
+        return static_cast<int>(size_++);
+    }
+    const Record& operator[](int i) const {
+        const auto k = static_cast<std::size_t>(i);
+        return blocks_[k >> kShift][k & kMask];
+    }
+
+private:
+    static constexpr std::size_t kShift = 16, kBlock = std::size_t{1} << kShift, kMask = kBlock - 1;
+    std::vector<std::unique_ptr<Record[]>> blocks_;
+    std::size_t size_ = 0;
 };
 
 struct Graph {
@@ -162,8 +183,7 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
     std::vector<int> activeList, nextList;
     std::vector<float> nullScore(g.nullArcs.size(), kNone);
     std::vector<int> nullHist(g.nullArcs.size(), -1);
-    std::vector<Record> records;
-    records.reserve(T * 4);
+    RecordStore records;
 
     std::size_t frameAhead = 1;  // 1 + the frame that entries scheduled now belong to
     auto schedule = [&](int u, float s, int h) {
@@ -199,7 +219,7 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
     relaxNulls();
     float finalScore = kNone;
     int finalHist = -1;
-    SenoneScorer scorer(model, features);
+    SenoneScorer scorer(model, features, SenoneScorer::kDefaultTopDensities, params.codebookCache);
     std::vector<float> fresh(S);
     std::vector<int> freshHist(S);
     for (std::size_t t = 0; t < T; ++t) {
@@ -238,8 +258,7 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
                 }
                 if (j == 0 && entry[ui] > bestIn) {
                     bestIn = entry[ui];
-                    records.push_back({entryHist[ui], u, t, entry[ui]});
-                    bestHist = static_cast<int>(records.size()) - 1;
+                    bestHist = records.add({entryHist[ui], u, t, entry[ui]});
                 }
                 if (bestIn == kNone) {
                     fresh[static_cast<std::size_t>(j)] = kNone;
@@ -326,7 +345,7 @@ ForcedAlignment forceAlign(const AcousticModel& model, const ModelFeatures& feat
     }
     result.logLikelihood = finalScore;
     std::vector<const Record*> chain;
-    for (int h = finalHist; h >= 0; h = records[static_cast<std::size_t>(h)].prev) chain.push_back(&records[static_cast<std::size_t>(h)]);
+    for (int h = finalHist; h >= 0; h = records[h].prev) chain.push_back(&records[h]);
     std::reverse(chain.begin(), chain.end());
     for (std::size_t i = 0; i < chain.size(); ++i) {
         const Record& r = *chain[i];

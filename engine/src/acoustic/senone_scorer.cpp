@@ -1,13 +1,47 @@
 #include "earmark/acoustic/senone_scorer.hpp"
 
+#include "earmark/core/error.hpp"
+
 #include <algorithm>
 #include <cmath>
+#include <cstring>
 #include <limits>
 
 namespace earmark {
 
-SenoneScorer::SenoneScorer(const AcousticModel& model, const ModelFeatures& features, int topDensities)
-    : model_(model), features_(features), top_(std::clamp(topDensities, 1, model.densities())) {
+CodebookTopCache::CodebookTopCache(const AcousticModel& model, std::size_t frames, int topDensities)
+    : codebooks_(static_cast<std::size_t>(model.codebookCount())),
+      frames_(frames),
+      block_(static_cast<std::size_t>(model.streams() * std::clamp(topDensities, 1, model.densities()))),
+      top_(std::clamp(topDensities, 1, model.densities())) {
+    const std::size_t cells = frames_ * codebooks_;
+    if (cells == 0 || cells * (block_ * sizeof(TopDensity) + 1) > kMaxBytes) return;
+    filled_.assign(cells, 0);
+    tops_.resize(cells * block_);
+}
+
+std::size_t CodebookTopCache::index(std::size_t frame, int codebook) const {
+    return frame * codebooks_ + static_cast<std::size_t>(codebook);
+}
+
+const TopDensity* CodebookTopCache::find(std::size_t frame, int codebook) const {
+    if (!enabled() || frame >= frames_) return nullptr;
+    const std::size_t i = index(frame, codebook);
+    return filled_[i] ? tops_.data() + i * block_ : nullptr;
+}
+
+TopDensity* CodebookTopCache::keep(std::size_t frame, int codebook) {
+    if (!enabled() || frame >= frames_) return nullptr;
+    const std::size_t i = index(frame, codebook);
+    filled_[i] = 1;
+    return tops_.data() + i * block_;
+}
+
+SenoneScorer::SenoneScorer(const AcousticModel& model, const ModelFeatures& features, int topDensities,
+                           CodebookTopCache* cache)
+    : model_(model), features_(features), top_(std::clamp(topDensities, 1, model.densities())), cache_(cache) {
+    if (cache_ && cache_->topDensities() != top_)
+        throw ParamError("SenoneScorer.cache", "was built for a different number of top densities");
     codebookStamp_.assign(static_cast<std::size_t>(model.codebookCount()), 0);
     codebookTop_.resize(static_cast<std::size_t>(model.codebookCount() * model.streams() * top_));
     senoneStamp_.assign(static_cast<std::size_t>(model.senoneCount()), 0);
@@ -18,6 +52,19 @@ SenoneScorer::SenoneScorer(const AcousticModel& model, const ModelFeatures& feat
 void SenoneScorer::setFrame(std::size_t frame) { frame_ = frame; }
 
 void SenoneScorer::evaluateCodebook(int cb) {
+    const std::size_t block = static_cast<std::size_t>(model_.streams() * top_);
+    TopDensity* mine = codebookTop_.data() + static_cast<std::size_t>(cb) * block;
+    if (const TopDensity* kept = cache_ ? cache_->find(frame_, cb) : nullptr) {
+        std::memcpy(mine, kept, block * sizeof(TopDensity));
+    } else {
+        computeCodebook(cb, mine);
+        if (TopDensity* slot = cache_ ? cache_->keep(frame_, cb) : nullptr)
+            std::memcpy(slot, mine, block * sizeof(TopDensity));
+    }
+    codebookStamp_[static_cast<std::size_t>(cb)] = static_cast<std::uint32_t>(frame_ + 1);
+}
+
+void SenoneScorer::computeCodebook(int cb, TopDensity* out) {
     const float* x = features_.frame(frame_);
     const auto& sizes = model_.frontEnd().streamSizes;
     int offset = 0;
@@ -39,9 +86,7 @@ void SenoneScorer::evaluateCodebook(int cb) {
             }
         }
         for (int d = 0; d < nd; ++d) acc[d] = g.logConst[d] - 0.5f * acc[d];
-        Top* top = codebookTop_.data() + (static_cast<std::size_t>(cb) * static_cast<std::size_t>(model_.streams()) +
-                                          static_cast<std::size_t>(s)) *
-                                             static_cast<std::size_t>(top_);
+        TopDensity* top = out + static_cast<std::size_t>(s) * static_cast<std::size_t>(top_);
         for (int k = 0; k < top_; ++k) top[k] = {-1, -std::numeric_limits<float>::infinity()};
         for (int d = 0; d < model_.densities(); ++d) {
             const float v = scratch_[static_cast<std::size_t>(d)];
@@ -55,7 +100,6 @@ void SenoneScorer::evaluateCodebook(int cb) {
         }
         offset += dim;
     }
-    codebookStamp_[static_cast<std::size_t>(cb)] = static_cast<std::uint32_t>(frame_ + 1);
 }
 
 float SenoneScorer::score(int senone) {
@@ -66,7 +110,7 @@ float SenoneScorer::score(int senone) {
     if (codebookStamp_[static_cast<std::size_t>(cb)] != stamp) evaluateCodebook(cb);
     float total = 0;
     for (int s = 0; s < model_.streams(); ++s) {
-        const Top* top = codebookTop_.data() + (static_cast<std::size_t>(cb) * static_cast<std::size_t>(model_.streams()) +
+        const TopDensity* top = codebookTop_.data() + (static_cast<std::size_t>(cb) * static_cast<std::size_t>(model_.streams()) +
                                                 static_cast<std::size_t>(s)) *
                                                    static_cast<std::size_t>(top_);
         float best = -std::numeric_limits<float>::infinity();

@@ -210,6 +210,9 @@ WordEvidenceResult gatherWordEvidence(const Signal& take, const std::string& tex
     ForcedAlignmentParams plain = params.search;
     plain.coverage = false;
     plain.pauseFramePenalty = heard.pausePenalties(features, params.loudPausePenalty);
+    // Pass 2 visits mostly the Gaussians pass 1 evaluated: keep them (bounded memory).
+    CodebookTopCache codebooks(*model, features.frames, SenoneScorer::kDefaultTopDensities);
+    plain.codebookCache = &codebooks;
     const ForcedAlignment first = forceAlign(*model, features, script, contextFree, plain, progress.sub(0.1, 0.45));
     ForcedAlignmentParams search = plain;
     search.coverage = params.search.coverage;

@@ -28,6 +28,19 @@ struct CardsTake {
     std::vector<ScriptWord> words = scriptWords("ten of clubs", *dictionary, *model, "en-us");
 };
 
+// The same path to the last bit: stretches, phones and scores.
+void expectSamePath(const ForcedAlignment& a, const ForcedAlignment& b) {
+    ASSERT_TRUE(a.reachedEnd);
+    ASSERT_TRUE(b.reachedEnd);
+    EXPECT_EQ(a.logLikelihood, b.logLikelihood);
+    ASSERT_EQ(a.path.size(), b.path.size());
+    for (std::size_t i = 0; i < a.path.size(); ++i) {
+        EXPECT_EQ(a.path[i].startFrame, b.path[i].startFrame) << i;
+        EXPECT_EQ(a.path[i].basePhone, b.path[i].basePhone) << i;
+        EXPECT_EQ(a.path[i].logLikelihood, b.path[i].logLikelihood) << i;
+    }
+}
+
 TEST(ForcedAlignment, GivenContextFreeScoresGiveTheSamePath) {
     const CardsTake s;
     std::vector<float> contextFree;
@@ -39,14 +52,40 @@ TEST(ForcedAlignment, GivenContextFreeScoresGiveTheSamePath) {
     const std::vector<float> before = contextFree;
     const ForcedAlignment reused = forceAlign(*s.model, s.features, s.words, contextFree, reuse);
     EXPECT_EQ(contextFree, before);
-    ASSERT_TRUE(computed.reachedEnd);
-    ASSERT_TRUE(reused.reachedEnd);
-    EXPECT_EQ(reused.logLikelihood, computed.logLikelihood);
-    ASSERT_EQ(reused.path.size(), computed.path.size());
-    for (std::size_t i = 0; i < computed.path.size(); ++i) {
-        EXPECT_EQ(reused.path[i].startFrame, computed.path[i].startFrame) << i;
-        EXPECT_EQ(reused.path[i].basePhone, computed.path[i].basePhone) << i;
-    }
+    expectSamePath(reused, computed);
+}
+
+// Gaussian evaluations kept from a first pass: a second pass that reads
+// them (with coverage on, so it visits other states too) finds the path a
+// pass computing everything itself finds, to the last bit.
+TEST(ForcedAlignment, KeptCodebookEvaluationsGiveTheSamePath) {
+    const CardsTake s;
+    CodebookTopCache kept(*s.model, s.features.frames, SenoneScorer::kDefaultTopDensities);
+    ASSERT_TRUE(kept.enabled());
+    std::vector<float> contextFree;
+    ForcedAlignmentParams first;
+    first.coverage = false;
+    first.codebookCache = &kept;
+    forceAlign(*s.model, s.features, s.words, contextFree, first);
+    EXPECT_NE(kept.find(0, s.model->codebookOf(s.model->states(0)[0])), nullptr);
+
+    ForcedAlignmentParams second;
+    second.codebookCache = &kept;
+    std::vector<float> scoresA, scoresB;
+    const ForcedAlignment fromKept = forceAlign(*s.model, s.features, s.words, scoresA, second);
+    const ForcedAlignment computed = forceAlign(*s.model, s.features, s.words, scoresB);
+    EXPECT_EQ(scoresA, scoresB);
+    expectSamePath(fromKept, computed);
+}
+
+// Memory stays bounded: a cache for an hour of frames keeps nothing.
+TEST(ForcedAlignment, CodebookCacheHoldsNothingBeyondItsBound) {
+    const AcousticModel& model = loadedModel();
+    const CodebookTopCache hour(model, 360000, SenoneScorer::kDefaultTopDensities);
+    EXPECT_FALSE(hour.enabled());
+    EXPECT_EQ(hour.find(0, 0), nullptr);
+    const CodebookTopCache minute(model, 6000, SenoneScorer::kDefaultTopDensities);
+    EXPECT_TRUE(minute.enabled());
 }
 
 TEST(ForcedAlignment, GivenScoresOfTheWrongSizeAreRefused) {

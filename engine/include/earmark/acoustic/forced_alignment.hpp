@@ -21,6 +21,7 @@
 #include "earmark/acoustic/acoustic_model.hpp"
 #include "earmark/acoustic/model_features.hpp"
 #include "earmark/acoustic/pronunciations.hpp"
+#include "earmark/acoustic/senone_scorer.hpp"
 #include "earmark/core/progress.hpp"
 
 #include <cstddef>
@@ -44,6 +45,9 @@ struct ForcedAlignmentParams {
     // feature frame (ParamError otherwise). Lets the caller rule out pauses over loud speech,
     // which the silence model can fit better than a formant synthesiser's vowel.
     std::vector<float> pauseFramePenalty;
+    // Optional: Gaussian evaluations kept across passes over the same features (built with
+    // SenoneScorer::kDefaultTopDensities); a later pass reads what an earlier one computed.
+    CodebookTopCache* codebookCache = nullptr;
     // Throws ParamError("ForcedAlignmentParams.<field>") for negative values or a beam <= 0.
     void validate() const;
 };
