@@ -66,7 +66,8 @@ std::vector<Section> layout(ScanRules& r) {
         {"dc_offset", with(switchFields(r.dcOffset), {{"max_abs", &r.dcOffset.maxAbs}})},
         {"pronunciation", with(switchFields(r.pronunciation), {{"max_mads_below", &r.pronunciation.maxMadsBelow},
                                                                {"min_mad", &r.pronunciation.minMad},
-                                                               {"min_words", &r.pronunciation.minWords}})},
+                                                               {"min_words", &r.pronunciation.minWords},
+                                                               {"min_same_word", &r.pronunciation.minSameWord}})},
         {"skipped_word", switchFields(r.skippedWord)},
         {"repeated_word", switchFields(r.repeatedWord)},
         {"extra_speech", with(switchFields(r.extraSpeech), {{"min_s", &r.extraSpeech.minSeconds}})},
@@ -239,6 +240,8 @@ void ScanRules::validate() const {
     positive(pronunciation.maxMadsBelow, "pronunciation", "max_mads_below");
     positive(pronunciation.minMad, "pronunciation", "min_mad");
     if (pronunciation.minWords < 2) throw ParamError("rules.pronunciation.min_words", "must be >= 2");
+    if (pronunciation.minSameWord < 3)
+        throw ParamError("rules.pronunciation.min_same_word", "must be >= 3");
     nonNegative(extraSpeech.minSeconds, "extra_speech", "min_s");
     validateLongform(longform);
     // The detectors check their own parameters; name the section in the error.

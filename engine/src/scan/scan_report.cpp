@@ -331,6 +331,10 @@ WordScoreCalibration calibrationFromJson(const Json& j) {
     c.words = j.at("words").get<std::size_t>();
     c.typicalWordSeconds = j.value("typical_word_s", 0.0);  // absent in reports written before it
     c.supplied = j.value("supplied", false);
+    if (j.contains("same_words")) {  // absent in reports written before it
+        for (const auto& [word, w] : j.at("same_words").items())
+            c.sameWords[word] = {w.at("mad").get<double>(), w.at("count").get<std::size_t>()};
+    }
     return c;
 }
 
@@ -409,15 +413,17 @@ namespace {
 void applyPronunciation(ScanReport& report, const ScanRules& rules,
                         const std::optional<WordScoreCalibration>& supplied) {
     std::vector<double> scores, seconds;
+    std::vector<std::string> labels;
     for (const auto& row : report.rows)
         if (!row.failed && row.words.scoresKnown)
             for (const auto& w : row.words.words) {
                 scores.push_back(w.score);
                 seconds.push_back(w.endS - w.startS);
+                labels.push_back(w.label);
             }
     report.wordCalibration = supplied;
     if (report.wordCalibration) report.wordCalibration->supplied = true;
-    else report.wordCalibration = calibrateWordScores(std::move(scores), rules.pronunciation, std::move(seconds));
+    else report.wordCalibration = calibrateWordScores(std::move(scores), rules.pronunciation, std::move(seconds), std::move(labels));
     for (auto& row : report.rows) {
         if (row.failed) continue;
         if (!row.words.scoresKnown) {
@@ -521,6 +527,9 @@ std::string reportToJson(const ScanReport& report, const ScanRules& rules) {
         const auto& c = *report.wordCalibration;
         doc["word_score_calibration"] = {{"median_score", c.medianScore}, {"mad", c.mad}, {"words", c.words},
                                          {"typical_word_s", c.typicalWordSeconds}, {"supplied", c.supplied}, {"limit", c.limit(rules.pronunciation)}};
+        Json same = Json::object();
+        for (const auto& [word, w] : c.sameWords) same[word] = {{"mad", w.mad}, {"count", w.count}};
+        doc["word_score_calibration"]["same_words"] = same;
     } else {
         doc["word_score_calibration"] = nullptr;
     }

@@ -1,6 +1,7 @@
 #include "earmark/scan/word_checks.hpp"
 
 #include <algorithm>
+#include <cctype>
 #include <cmath>
 #include <cstdio>
 
@@ -134,15 +135,44 @@ double WordScoreCalibration::shortWordAllowance(double seconds) const {
     return std::sqrt(typicalWordSeconds / seconds);
 }
 
-double WordScoreCalibration::limitFor(const PronunciationRule& rule, double seconds) const {
-    return medianScore - rule.maxMadsBelow * std::max(mad, rule.minMad) * shortWordAllowance(seconds);
+namespace {
+std::string lowerCase(std::string s) {
+    for (char& ch : s) ch = static_cast<char>(std::tolower(static_cast<unsigned char>(ch)));
+    return s;
+}
+}  // namespace
+
+const WordScoreCalibration::SameWord* WordScoreCalibration::sameWord(const std::string& label) const {
+    if (label.empty()) return nullptr;
+    const auto it = sameWords.find(lowerCase(label));
+    return it == sameWords.end() ? nullptr : &it->second;
+}
+
+double WordScoreCalibration::spreadFor(const PronunciationRule& rule, const std::string& label) const {
+    const SameWord* own = sameWord(label);
+    return std::max({mad, rule.minMad, own ? own->mad : 0.0});
+}
+
+double WordScoreCalibration::limitFor(const PronunciationRule& rule, double seconds, const std::string& label) const {
+    return medianScore - rule.maxMadsBelow * spreadFor(rule, label) * shortWordAllowance(seconds);
 }
 
 std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule,
-                                                        std::vector<double> seconds) {
+                                                        std::vector<double> seconds, std::vector<std::string> labels) {
+    std::map<std::string, std::vector<double>> byWord;
+    if (labels.size() == scores.size())
+        for (std::size_t i = 0; i < scores.size(); ++i)
+            if (std::isfinite(scores[i])) byWord[lowerCase(labels[i])].push_back(scores[i]);
     std::erase_if(scores, [](double s) { return !std::isfinite(s); });
     if (scores.size() < static_cast<std::size_t>(std::max(1, rule.minWords))) return std::nullopt;
     WordScoreCalibration c;
+    for (auto& [word, own] : byWord) {
+        if (own.size() < static_cast<std::size_t>(std::max(3, rule.minSameWord))) continue;
+        const std::size_t count = own.size();
+        const double m = median(own);
+        for (double& s : own) s = std::fabs(s - m);
+        c.sameWords[word] = {median(std::move(own)), count};
+    }
     c.words = scores.size();
     c.medianScore = median(scores);
     for (double& s : scores) s = std::fabs(s - c.medianScore);
@@ -158,13 +188,13 @@ std::optional<TakeSuspect> pronunciationSuspect(const TakeWords& words, const Wo
     const auto secondsOf = [](const ScannedWord& w) { return w.endS - w.startS; };
     // How far below its own limit a word lies, in units of that limit's distance from the median.
     const auto shortfall = [&](const ScannedWord& w) {
-        const double allowed = calibration.medianScore - calibration.limitFor(rules.pronunciation, secondsOf(w));
+        const double allowed = calibration.medianScore - calibration.limitFor(rules.pronunciation, secondsOf(w), w.label);
         return (calibration.medianScore - w.score) / allowed;
     };
     const ScannedWord* worst = nullptr;
     std::vector<std::string> below;
     for (const auto& w : words.words) {
-        if (!(w.score < calibration.limitFor(rules.pronunciation, secondsOf(w)))) continue;
+        if (!(w.score < calibration.limitFor(rules.pronunciation, secondsOf(w), w.label))) continue;
         below.push_back(w.label);
         if (!worst || shortfall(w) > shortfall(*worst)) worst = &w;
     }
@@ -172,14 +202,18 @@ std::optional<TakeSuspect> pronunciationSuspect(const TakeWords& words, const Wo
     std::vector<std::string> others;
     for (const auto& label : below)
         if (label != worst->label) others.push_back(label);
-    const double limit = calibration.limitFor(rules.pronunciation, secondsOf(*worst));
+    const double limit = calibration.limitFor(rules.pronunciation, secondsOf(*worst), worst->label);
+    const auto* own = calibration.sameWord(worst->label);
+    const bool ownSpread = own && own->mad > std::max(calibration.mad, rules.pronunciation.minMad);
     const double allowance = calibration.shortWordAllowance(secondsOf(*worst));
     std::string reason = "'" + worst->label + "' scores " + num(worst->score) + " nats/frame at " + num(worst->startS) +
                          "–" + num(worst->endS) + " s" +
                          (worst->offPhones.empty() ? "" : " (" + worst->offPhones + ")") + ", below the set's " +
                          num(limit) + " (median " + num(calibration.medianScore) + " − " +
                          num(rules.pronunciation.maxMadsBelow, 1) + " × MAD " +
-                         num(std::max(calibration.mad, rules.pronunciation.minMad)) +
+                         num(calibration.spreadFor(rules.pronunciation, worst->label)) +
+                         (ownSpread ? " of '" + worst->label + "', said " + std::to_string(own->count) + " times in the set"
+                                    : std::string()) +
                          (allowance > 1.0 ? " × " + num(allowance) + " for a word shorter than the set's typical " +
                                                 num(calibration.typicalWordSeconds) + " s"
                                           : "") +

@@ -165,6 +165,55 @@ TEST(WordScoreCalibration, MedianAndMadOfTheSet) {
 // A word's score is a mean over its frames; a mean of n frames spreads as
 // 1/sqrt(n) (the standard error of a mean), so a word half as long as the
 // set's median word is held to sqrt(2) times the distance from the median.
+// A take whose spoken words have known model scores.
+TakeWords scoredTake(std::vector<ScannedWord> words) {
+    TakeWords take;
+    take.method = "model";
+    take.scoresKnown = true;
+    take.words = std::move(words);
+    return take;
+}
+
+// A word said often whose own scores spread wider than the set's is held to
+// its own spread; one said always wrong (low, narrow) keeps the set's limit.
+// MAD as in Hampel 1974 (unscaled), computed by hand below.
+TEST(WordScoreCalibration, OftenSaidWordsWithAWideSpreadWidenTheirOwnLimit) {
+    PronunciationRule rule;
+    rule.minWords = 5;
+    rule.maxMadsBelow = 8;
+    rule.minSameWord = 4;
+    // Set: 28 words, median -0.3, MAD 0.1 (limit -1.1). 'the' x4 (-0.2, -0.4, -1.0, -3.0):
+    // median -0.7, MAD 0.4 (limit -0.3 - 8 x 0.4 = -3.5). 'pier' x4 (-2.0, -2.1, -2.1, -2.2):
+    // MAD 0.05, under the set's.
+    std::vector<double> scores = {-0.2, -0.4, -1.0, -3.0, -2.0, -2.1, -2.1, -2.2};
+    std::vector<std::string> labels = {"the", "The", "the", "THE", "pier", "pier", "pier", "pier"};
+    for (int i = 0; i < 20; ++i) {
+        scores.push_back(i % 2 ? -0.2 : -0.3);
+        labels.push_back("word" + std::to_string(i));
+    }
+    const auto c = calibrateWordScores(scores, rule, {}, labels);
+    ASSERT_TRUE(c.has_value());
+    ASSERT_EQ(c->sameWords.size(), 2u);
+    EXPECT_NEAR(c->medianScore, -0.3, 1e-12);
+    EXPECT_NEAR(c->mad, 0.1, 1e-12);
+    EXPECT_NEAR(c->sameWords.at("the").mad, 0.4, 1e-12);
+    EXPECT_EQ(c->sameWords.at("the").count, 4u);
+    EXPECT_NEAR(c->limitFor(rule, 0.3, "The"), -3.5, 1e-12);
+    EXPECT_DOUBLE_EQ(c->limitFor(rule, 0.3, "pier"), c->limit(rule));
+    EXPECT_DOUBLE_EQ(c->limitFor(rule, 0.3, "harbour"), c->limit(rule));
+    ScanRules rules;
+    rules.pronunciation = rule;
+    TakeWords take = scoredTake({{"the", 1.0, 1.3, -3.0, ""}, {"harbour", 1.3, 1.7, -0.3, ""}});
+    EXPECT_FALSE(pronunciationSuspect(take, *c, rules).has_value());
+    take.words = {{"pier", 1.0, 1.3, -2.2, ""}};
+    const auto s = pronunciationSuspect(take, *c, rules);
+    ASSERT_TRUE(s.has_value());
+    take.words = {{"the", 1.0, 1.3, -4.5, ""}};
+    const auto t = pronunciationSuspect(take, *c, rules);
+    ASSERT_TRUE(t.has_value());
+    EXPECT_NE(t->reason.find("of 'the', said 4 times in the set"), std::string::npos) << t->reason;
+}
+
 TEST(WordScoreCalibration, ShortWordsAreHeldToAWiderLimit) {
     PronunciationRule rule;
     rule.minWords = 5;
@@ -178,10 +227,7 @@ TEST(WordScoreCalibration, ShortWordsAreHeldToAWiderLimit) {
     // −1.3 is below the set's limit (−1.1) but not below a 0.15 s word's (−1.43).
     ScanRules rules;
     rules.pronunciation = rule;
-    TakeWords take;
-    take.method = "model";
-    take.scoresKnown = true;
-    take.words = {{"the", 1.0, 1.15, -1.3, ""}, {"harbour", 1.15, 1.55, -0.3, ""}};
+    TakeWords take = scoredTake({{"the", 1.0, 1.15, -1.3, ""}, {"harbour", 1.15, 1.55, -0.3, ""}});
     EXPECT_FALSE(pronunciationSuspect(take, *c, rules).has_value());
     take.words.front().endS = 1.3;  // the same score over 0.3 s is off
     const auto s = pronunciationSuspect(take, *c, rules);

@@ -71,6 +71,7 @@ struct PronunciationRule : RuleSwitch {
     double maxMadsBelow = 8.0;             // k: median absolute deviations below the set median
     double minMad = 0.05;                  // nats/frame; floor of the set's MAD (a set of near-equal scores)
     int minWords = 50;                     // fewer scored words in the set: the rule is not applied
+    int minSameWord = 8;                   // a word said this often in the set may widen its own limit
 };
 struct ExtraSpeechRule : RuleSwitch {
     double minSeconds = 0.15;              // shorter unscripted stretches are not reported

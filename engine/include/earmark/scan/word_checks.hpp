@@ -13,7 +13,12 @@
 // it is used unscaled. A word's score is a mean over its frames, and a mean of
 // n frames spreads as 1/√n (standard error of a mean): a word shorter than the
 // set's median word is held to k × spread × √(typical / its seconds); longer
-// words keep the set's limit. A scan sharded with --shard calibrates on the takes
+// words keep the set's limit. A word the set holds at least
+// rules.pronunciation.minSameWord times (a function word such as "the", said
+// "thuh" or "thee" by context) is held to the larger of the set's MAD and the
+// MAD of its own scores: a voice that says a word in many ways is not faulted
+// for the variety, while a word it always says wrong (low scores, small
+// spread) keeps the set's limit. A scan sharded with --shard calibrates on the takes
 // of its own shard unless a calibration is supplied (docs/scan.md).
 //
 // Thread-safety: pure functions.
@@ -22,6 +27,7 @@
 #include "earmark/acoustic/word_evidence.hpp"
 #include "earmark/prosody/suspects.hpp"
 
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -66,19 +72,30 @@ struct WordScoreCalibration {
     std::size_t words = 0;      // scores it was made from
     double typicalWordSeconds = 0;  // median duration of those words (0: unknown, no allowance for short words)
     bool supplied = false;      // given by the caller rather than measured on this set
+    struct SameWord {
+        double mad = 0;         // MAD of this word's scores, nats/frame
+        std::size_t count = 0;  // how often the set holds it
+    };
+    std::map<std::string, SameWord> sameWords;  // by lower-case label; only words said >= minSameWord times
 
     // median − maxMadsBelow × max(mad, minMad)
     double limit(const PronunciationRule& rule) const;
-    // The limit for a word lasting `seconds`: lower for words shorter than the typical word (above).
-    double limitFor(const PronunciationRule& rule, double seconds) const;
+    // The limit for a word `label` lasting `seconds`: lower for words shorter than the typical
+    // word, and for words whose own scores spread wider than the set's (above).
+    double limitFor(const PronunciationRule& rule, double seconds, const std::string& label = {}) const;
+    // The spread the limit of `label` uses: max(mad, minMad, that word's own MAD).
+    double spreadFor(const PronunciationRule& rule, const std::string& label) const;
+    const SameWord* sameWord(const std::string& label) const;
     // √(typical / seconds) for a shorter word, else 1.
     double shortWordAllowance(double seconds) const;
 };
 
 // Median and MAD of `scores`, median of `seconds` (the words' durations, same
-// order; may be empty); nullopt for fewer than rule.minWords scores.
+// order; may be empty), the MAD of each label said at least rule.minSameWord
+// times (`labels`: same order; may be empty); nullopt for fewer than rule.minWords scores.
 std::optional<WordScoreCalibration> calibrateWordScores(std::vector<double> scores, const PronunciationRule& rule,
-                                                        std::vector<double> seconds = {});
+                                                        std::vector<double> seconds = {},
+                                                        std::vector<std::string> labels = {});
 
 // The pronunciation suspect of one take: the word furthest below its limit
 // (limitFor), naming the word, its time, the phones most off and the other
