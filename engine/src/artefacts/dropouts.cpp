@@ -20,6 +20,8 @@ void DropoutParams::validate() const {
         throw ParamError("DropoutParams.edgeBelowSpeechDb", "must be positive");
     if (!(voicedSeconds >= 0 && voicedSeconds <= 0.1)) throw ParamError("DropoutParams.voicedSeconds", "must be in [0, 0.1]");
     if (!(maxF0StepSt > 0 && std::isfinite(maxF0StepSt))) throw ParamError("DropoutParams.maxF0StepSt", "must be positive");
+    if (!(unvoicedEdgeBelowSpeechDb > 0 && unvoicedEdgeBelowSpeechDb <= edgeBelowSpeechDb))
+        throw ParamError("DropoutParams.unvoicedEdgeBelowSpeechDb", "must be in (0, edgeBelowSpeechDb]");
 }
 
 std::vector<ArtefactEvent> findDropouts(const Signal& signal, const PitchTrack& pitch, double speechLevelDb,
@@ -69,7 +71,13 @@ std::vector<ArtefactEvent> findDropouts(const Signal& signal, const PitchTrack& 
             if (before <= 0) before = f0At(startS - d);
             if (after <= 0) after = f0At(endS + d);
         }
-        if (before <= 0 || after <= 0 || std::fabs(12.0 * std::log2(after / before)) > p.maxF0StepSt) continue;
+        // A side YIN calls unvoiced (its frames reach into the gap) still
+        // continues the voice when the sound there is near the speech level.
+        const double strongFloor = speechLevelDb - p.unvoicedEdgeBelowSpeechDb;
+        const bool beforeOk = before > 0 || meanDb(run.first - edge, run.first) >= strongFloor;
+        const bool afterOk = after > 0 || meanDb(run.last + 1, run.last + 1 + edge) >= strongFloor;
+        if (!beforeOk || !afterOk || (before <= 0 && after <= 0)) continue;
+        if (before > 0 && after > 0 && std::fabs(12.0 * std::log2(after / before)) > p.maxF0StepSt) continue;
         events.push_back({static_cast<double>(run.first) * blockS, static_cast<double>(run.last + 1) * blockS,
                           speechLevelDb - meanDb(run.first, run.last + 1)});
     }

@@ -111,7 +111,9 @@ std::vector<Section> layout(ScanRules& r) {
                                                    {"min_s", &r.dropout.params.minSeconds},
                                                    {"max_s", &r.dropout.params.maxSeconds},
                                                    {"edge_below_speech_db", &r.dropout.params.edgeBelowSpeechDb},
-                                                   {"max_f0_step_st", &r.dropout.params.maxF0StepSt}})},
+                                                   {"max_f0_step_st", &r.dropout.params.maxF0StepSt},
+                                                   {"unvoiced_edge_below_speech_db",
+                                                    &r.dropout.params.unvoicedEdgeBelowSpeechDb}})},
     };
 }
 

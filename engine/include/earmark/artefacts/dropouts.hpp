@@ -11,8 +11,14 @@
 // whose RMS is more than `minDepthDb` below the speech level, lasting
 // [`minSeconds`, `maxSeconds`]; it is a drop-out when the `edgeSeconds`
 // just before and just after it are within `edgeBelowSpeechDb` of the speech
-// level and the pitch track has a voiced frame within `voicedSeconds` before
-// its start and after its end, with F0 on the two sides within `maxF0StepSt` semitones.
+// level and the voice goes on across it: the pitch track has a voiced frame
+// within `voicedSeconds` before its start or after its end, with F0 on the
+// two sides within `maxF0StepSt` semitones where both are voiced. A side
+// without a voiced frame counts only when its edge is within
+// `unvoicedEdgeBelowSpeechDb` of the speech level: YIN's frames next to the
+// gap reach into it and lose the voice, while the sound after a stop closure
+// (a release, a weak onset) lies further down — 16–19 dB below the speech
+// level for espeak-ng's closures of 41–53 ms of digital silence.
 // `minSeconds` is calibrated on the clean takes of tests/engine/artefacts:
 // espeak-ng renders some stop closures as 9–12 ms of digital silence between
 // voiced sounds, cut as abruptly as a drop-out (8.9 false events per 5 min
@@ -45,6 +51,8 @@ struct DropoutParams {
     double edgeBelowSpeechDb = 20.0;  // both sides within this of the speech level, dB. Valid: > 0
     double voicedSeconds = 0.03;      // voicing looked for this far outside the gap, s. Valid: [0, 0.1]
     double maxF0StepSt = 3.0;         // F0 across the gap may differ this much, semitones. Valid: > 0
+    double unvoicedEdgeBelowSpeechDb = 10.0;  // a side without voicing must be this near the speech level, dB.
+                                              // Valid: (0, edgeBelowSpeechDb]
     void validate() const;            // throws ParamError("DropoutParams.<field>")
 };
 
