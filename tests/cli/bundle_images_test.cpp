@@ -35,10 +35,10 @@ using ::testing::IsEmpty;
 using K = test::VoiceSegment::Kind;
 
 // Two takes (one with a word tier), three marks.
-struct Scenario {
+struct BundleScenario {
     test::TempDir dir;
     std::string session = dir.file("pictures.earmark");
-    Scenario() {
+    BundleScenario() {
         const auto v = test::synthesiseVoice(
             {{K::Silence, 0.3, 0, 0, 0}, {K::Voiced, 1.2, 140, 180, 0.3}, {K::Silence, 0.3, 0, 0, 0}}, 22050);
         writeWav(dir.file("one.wav"), v.signal);
@@ -90,7 +90,7 @@ void expectPictures(const fs::path& bundle, int width, int height) {
 }
 
 TEST(BundleImages, OnePngPerMarkOfTheRequestedSize) {
-    Scenario s;
+    BundleScenario s;
     const fs::path bundle = s.dir.path() / "bundle";
     const auto r = runCli({"export", s.session, "--bundle", bundle.string(), "--image-size", "960x540"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
@@ -105,7 +105,7 @@ TEST(BundleImages, OnePngPerMarkOfTheRequestedSize) {
 #else
 
 TEST(BundleImages, WithoutTheWindowTheManifestSaysThereAreNoPictures) {
-    Scenario s;
+    BundleScenario s;
     const fs::path bundle = s.dir.path() / "bundle";
     const auto r = runCli({"export", s.session, "--bundle", bundle.string(), "--image-size", "960x540"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
@@ -121,7 +121,7 @@ TEST(BundleImages, WithoutTheWindowTheManifestSaysThereAreNoPictures) {
 #endif
 
 TEST(BundleImages, BadImageSizesAreRefused) {
-    Scenario s;
+    BundleScenario s;
     const fs::path bundle = s.dir.path() / "bundle";
     for (const char* size : {"wide", "1200", "1200x", "100x100", "1200x9000"}) {
         const auto r = runCli({"export", s.session, "--bundle", bundle.string(), "--image-size", size});

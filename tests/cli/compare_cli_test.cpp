@@ -26,7 +26,7 @@ const std::string kLine = "The lighthouse keeper counted seven gulls before brea
 
 std::string modelData(const std::string& name) { return std::string(EARMARK_TEST_DATA_DIR) + "/model/" + name; }
 
-std::string writeTake(const TempDir& dir, const std::string& name, int rateWpm) {
+std::string writeRenderedTake(const TempDir& dir, const std::string& name, int rateWpm) {
     const std::string path = dir.file(name);
     writeWav(path, renderSpeech(kLine, SpeechParams{"en-us", rateWpm, 50}).audio);
     return path;
@@ -34,7 +34,7 @@ std::string writeTake(const TempDir& dir, const std::string& name, int rateWpm) 
 
 TEST(CompareCli, JsonContractWithWordsFromTheText) {
     TempDir dir;
-    const std::string a = writeTake(dir, "a.wav", 175), b = writeTake(dir, "b.wav", 140);
+    const std::string a = writeRenderedTake(dir, "a.wav", 175), b = writeRenderedTake(dir, "b.wav", 140);
     const auto r = runCli({"compare", a, b, "--text", kLine, "--json", "-"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     const auto j = nlohmann::json::parse(r.out);
@@ -56,7 +56,7 @@ TEST(CompareCli, JsonContractWithWordsFromTheText) {
 
 TEST(CompareCli, WithoutWordsItSaysThereIsNoTable) {
     TempDir dir;
-    const std::string a = writeTake(dir, "a.wav", 175), b = writeTake(dir, "b.wav", 140);
+    const std::string a = writeRenderedTake(dir, "a.wav", 175), b = writeRenderedTake(dir, "b.wav", 140);
     const auto r = runCli({"compare", a, b});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     EXPECT_THAT(r.out, HasSubstr("mel-cepstral distortion"));
@@ -68,7 +68,7 @@ TEST(CompareCli, WithoutWordsItSaysThereIsNoTable) {
 
 TEST(CompareCli, WordsThatDifferAreBadInputNamingTheFile) {
     TempDir dir;
-    const std::string a = writeTake(dir, "a.wav", 175), b = writeTake(dir, "b.wav", 175);
+    const std::string a = writeRenderedTake(dir, "a.wav", 175), b = writeRenderedTake(dir, "b.wav", 175);
     const std::string wordsB = dir.file("b.csv");
     std::ofstream(wordsB) << "0.1,0.5,lighthouse\n0.6,0.9,keeper\n";
     const auto r = runCli({"compare", a, b, "--text", kLine, "--words-b", wordsB});

@@ -1,4 +1,5 @@
 // Every row of README's exit-code table, each by a command that must give it.
+#include "cli_takes.hpp"
 #include "run_cli.hpp"
 
 #include "earmark/io/audio_file.hpp"
@@ -25,20 +26,17 @@ namespace {
 using test::expectOneLineError;
 using test::runCli;
 using test::TempDir;
+using test::writeSpeechLikeTake;
 
-std::string writeTake(const TempDir& dir, const std::string& name) {
-    writeWav(dir.file(name), test::speechLike(1.0, 16000.0));
-    return dir.file(name);
-}
 
 TEST(ExitCodes, ZeroWhenDone) {
     TempDir dir;
-    EXPECT_EQ(runCli({"analyze", writeTake(dir, "a.wav")}).exitCode, 0);
+    EXPECT_EQ(runCli({"analyze", writeSpeechLikeTake(dir, "a.wav")}).exitCode, 0);
 }
 
 TEST(ExitCodes, FourWhenAnOutputCannotBeWritten) {
     TempDir dir;
-    const std::string take = writeTake(dir, "a.wav");
+    const std::string take = writeSpeechLikeTake(dir, "a.wav");
     auto r = runCli({"analyze", take, "--json", dir.file("no-such-folder/a.json")});
     EXPECT_EQ(r.exitCode, 4);
     expectOneLineError(r, dir.file("no-such-folder/a.json"));
@@ -49,7 +47,7 @@ TEST(ExitCodes, FourWhenAnOutputCannotBeWritten) {
 
 TEST(ExitCodes, TwoForBadUsageAndBadRulesFiles) {
     TempDir dir;
-    const std::string take = writeTake(dir, "a.wav");
+    const std::string take = writeSpeechLikeTake(dir, "a.wav");
     EXPECT_EQ(runCli({"analyze", take, "--no-such-option"}).exitCode, 2);
     EXPECT_EQ(runCli({"analyze", take, "--f0-min", "abc"}).exitCode, 2);
     std::ofstream(dir.file("rules.json")) << "this is not JSON";
@@ -70,7 +68,7 @@ TEST(ExitCodes, OneHundredThirtyWhenInterrupted) {
     // end is open, earmark-cli runs (its Ctrl-C handler is set up first), so
     // SIGINT is sent before any take is scanned.
     TempDir dir;
-    for (const char* name : {"a.wav", "b.wav", "c.wav"}) writeTake(dir, name);
+    for (const char* name : {"a.wav", "b.wav", "c.wav"}) writeSpeechLikeTake(dir, name);
     const std::string fifo = dir.file("list.csv");
     ASSERT_EQ(::mkfifo(fifo.c_str(), 0600), 0);
     const std::string out = dir.file("ranked.csv");

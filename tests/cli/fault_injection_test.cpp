@@ -121,11 +121,11 @@ Outcome killAtRandomSteps(const Command& c, test::TempDir& dir) {
     return o;
 }
 
-struct Scenario {
+struct FaultScenario {
     test::TempDir dir;
     std::string pristine = dir.file("pristine.earmark");
     std::string session = dir.file("s.earmark");
-    Scenario() {
+    FaultScenario() {
         fs::create_directories(dir.path() / "takes");
         std::ofstream oldList(dir.file("old.csv")), allList(dir.file("all.csv"));
         oldList << "id,audio\n";
@@ -151,7 +151,7 @@ void expectBothOutcomes(const Outcome& o, const std::string& name) {
 }
 
 TEST(FaultInjection, ScanIntoAnExistingSession) {
-    Scenario s;
+    FaultScenario s;
     ASSERT_EQ(test::runCli(s.scanArgs("old.csv", s.pristine)).exitCode, 0);
     const Command c{"scan", [&] { restoreSession(s.pristine, s.session); }, s.scanArgs("all.csv", s.session),
                     [&] { return test::sessionState(s.session); }};
@@ -159,7 +159,7 @@ TEST(FaultInjection, ScanIntoAnExistingSession) {
 }
 
 TEST(FaultInjection, ScanIntoANewSession) {
-    Scenario s;
+    FaultScenario s;
     const Command c{"scan_new", [&] { removeSession(s.session); }, s.scanArgs("all.csv", s.session),
                     [&] { return test::sessionState(s.session); }};
     expectBothOutcomes(killAtRandomSteps(c, s.dir), c.name);
@@ -171,7 +171,7 @@ TEST(FaultInjection, ScanIntoANewSession) {
 }
 
 TEST(FaultInjection, MarkAddAndSessionTiers) {
-    Scenario s;
+    FaultScenario s;
     ASSERT_EQ(test::runCli(s.scanArgs("all.csv", s.pristine)).exitCode, 0);
     const std::string words = s.dir.file("words.json");
     std::ofstream(words) << R"({"version": 1, "words": [{"text": "all", "start": 0.05, "end": 0.2},
@@ -188,7 +188,7 @@ TEST(FaultInjection, MarkAddAndSessionTiers) {
 }
 
 TEST(FaultInjection, BundleExport) {
-    Scenario s;
+    FaultScenario s;
     ASSERT_EQ(test::runCli({"session", "new", s.pristine}).exitCode, 0);
     ASSERT_EQ(test::runCli({"session", "add", s.pristine, s.dir.file("takes/t0.wav")}).exitCode, 0);
     auto addMark = [&](const std::string& start) {

@@ -1,6 +1,7 @@
 // earmark-cli against hostile and messy inputs: output that cannot be
 // written, outputs that would replace inputs, file names that are not UTF-8
 // or hold a line break, pipes, endless devices and folders in place of files.
+#include "cli_takes.hpp"
 #include "run_cli.hpp"
 
 #include "earmark/export/npy.hpp"
@@ -26,16 +27,13 @@ using test::expectOneLineError;
 using test::runCli;
 using test::runCliRedirected;
 using test::TempDir;
+using test::writeSpeechLikeTake;
 using ::testing::HasSubstr;
 
-std::string writeTake(const TempDir& dir, const std::string& name, double rate = 16000.0) {
-    writeWav(dir.file(name), test::speechLike(1.0, rate));
-    return dir.file(name);
-}
 
 TEST(HostileInputCli, WriteErrorsOnStdoutFail) {
     TempDir dir;
-    const std::string take = writeTake(dir, "a.wav");
+    const std::string take = writeSpeechLikeTake(dir, "a.wav");
     for (const std::vector<std::string>& args :
          {std::vector<std::string>{"analyze", take}, {"analyze", take, "--json", "-"}, {"scan", dir.path().string()}}) {
         const auto r = runCliRedirected(args, "/dev/null", "/dev/full");
@@ -46,7 +44,7 @@ TEST(HostileInputCli, WriteErrorsOnStdoutFail) {
 
 TEST(HostileInputCli, AnOutputMayNotReplaceAnotherOutputOrAnInput) {
     TempDir dir;
-    const std::string take = writeTake(dir, "a.wav");
+    const std::string take = writeSpeechLikeTake(dir, "a.wav");
     auto r = runCli({"scan", dir.path().string(), "--out", dir.file("x.csv"), "--json", dir.file("x.csv")});
     EXPECT_EQ(r.exitCode, 2);
     expectOneLineError(r, "--out and --json name the same file");
@@ -66,8 +64,8 @@ TEST(HostileInputCli, AnOutputMayNotReplaceAnotherOutputOrAnInput) {
 
 TEST(HostileInputCli, NamesThatAreNotUtf8OrHoldALineBreakRoundTrip) {
     TempDir dir;
-    const std::string odd = writeTake(dir, "b\xFF.wav");
-    writeTake(dir, "c\nd.wav");
+    const std::string odd = writeSpeechLikeTake(dir, "b\xFF.wav");
+    writeSpeechLikeTake(dir, "c\nd.wav");
 
     auto r = runCli({"analyze", odd, "--json", "-"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
@@ -114,7 +112,7 @@ TEST(HostileInputCli, AnErrorNamingAFileWithALineBreakStaysOneLine) {
 TEST(HostileInputCli, AudioFromAPipeOnStdin) {
     // `cat take.wav | earmark-cli analyze /dev/stdin`: the pipe can be read once.
     TempDir dir;
-    const std::string bytes = test::slurp(writeTake(dir, "a.wav"));
+    const std::string bytes = test::slurp(writeSpeechLikeTake(dir, "a.wav"));
     const std::string command = std::string("'") + EARMARK_CLI_PATH + "' analyze /dev/stdin --json '" +
                                 dir.file("a.json") + "' >/dev/null 2>'" + dir.file("err") + "'";
     FILE* pipe = ::popen(command.c_str(), "w");
@@ -128,7 +126,7 @@ TEST(HostileInputCli, AudioFromAPipeOnStdin) {
 
 TEST(HostileInputCli, EndlessDevicesAndFoldersAreRefusedByName) {
     TempDir dir;
-    const std::string take = writeTake(dir, "a.wav");
+    const std::string take = writeSpeechLikeTake(dir, "a.wav");
     const std::string folder = dir.path().string();
     writeNpyFloat32(dir.file("p.npy"), std::vector<float>(80 * 10, -5.0f), {80, 10});
     // Every text input goes through one reader (tests/engine/io/text_file_test.cpp
@@ -150,7 +148,7 @@ TEST(HostileInputCli, EndlessDevicesAndFoldersAreRefusedByName) {
 
 TEST(HostileInputCli, LoudnessBelowTheKWeightingRateIsNull) {
     TempDir dir;
-    const std::string take = writeTake(dir, "low.wav", 3000.0);
+    const std::string take = writeSpeechLikeTake(dir, "low.wav", 3000.0);
     const auto r = runCli({"analyze", take, "--json", "-"});
     ASSERT_EQ(r.exitCode, 0) << r.err;
     EXPECT_TRUE(nlohmann::json::parse(r.out)["summary"]["loudness_lufs"].is_null());

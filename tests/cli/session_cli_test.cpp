@@ -36,11 +36,11 @@ void expectOneLine(const test::CliResult& r) {
 
 // A folder with spaces and non-ASCII letters holding two takes, a line list
 // and word timings for the first take.
-struct Scenario {
+struct UnicodePathScenario {
     test::TempDir dir;
     fs::path root = dir.path() / "Sitzung für Ü-Tests";
     std::string session = (root / "Prüfung 1.earmark").string();
-    Scenario() {
+    UnicodePathScenario() {
         fs::create_directories(root / "Aufnahmen ä");
         // Take 1: 0.3 s silence, 1.4 s voiced at a steady 150 Hz, 0.3 s silence.
         const auto v = test::synthesiseVoice(
@@ -73,7 +73,7 @@ struct Scenario {
 };
 
 TEST(SessionCli, MarksRoundTripThroughCsvJsonAndBundle) {
-    Scenario s;
+    UnicodePathScenario s;
     s.setUp();
     const std::string id1 = s.addMark({"--take", "eins", "--start", "0.75", "--end", "1.6", "--category",
                                        "intonation", "--subtype", "flat", "--severity", "major", "--note",
@@ -150,7 +150,7 @@ TEST(SessionCli, MarksRoundTripThroughCsvJsonAndBundle) {
 }
 
 TEST(SessionCli, BadMarksAreRefusedWithOneClearLine) {
-    Scenario s;
+    UnicodePathScenario s;
     s.setUp();
     auto attempt = [&](std::vector<std::string> extra) {
         std::vector<std::string> args = {"mark", "add", s.session, "--take", "eins"};
@@ -182,7 +182,7 @@ TEST(SessionCli, BadMarksAreRefusedWithOneClearLine) {
 }
 
 TEST(SessionCli, BadSessionFilesAreNamedAndLeftAlone) {
-    Scenario s;
+    UnicodePathScenario s;
     const fs::path garbage = s.root / "kaputt.earmark";
     std::ofstream(garbage) << "not a database";
     auto r = runCli({"session", "list", garbage.string()});
@@ -206,7 +206,7 @@ TEST(SessionCli, BadSessionFilesAreNamedAndLeftAlone) {
 }
 
 TEST(SessionCli, MissingAudioShowsAndCanBeRelocated) {
-    Scenario s;
+    UnicodePathScenario s;
     s.setUp();
     fs::create_directories(s.root / "verschoben");
     fs::rename(s.root / "Aufnahmen ä/zwei.wav", s.root / "verschoben/zwei.wav");

@@ -136,4 +136,9 @@ LongRead makeLongRead(const LongReadPlan& plan) {
     return read;
 }
 
+const LongRead& twelveSentenceRead() {
+    static const LongRead read = makeLongRead({.sentences = 12});
+    return read;
+}
+
 }  // namespace earmark::test

@@ -46,4 +46,7 @@ struct LongRead {
 
 LongRead makeLongRead(const LongReadPlan& plan = {});
 
+// A plain read of 12 sentences (two paragraphs), built once per test program.
+const LongRead& twelveSentenceRead();
+
 }  // namespace earmark::test

@@ -3,6 +3,7 @@
 // 1.985 s) and goes back to "half" (token 10) over frames 316–323
 // (3.669–3.762 s) — the truth planted in the file (samples/README.md).
 #include "main_window.hpp"
+#include "sample_take.hpp"
 
 #include "earmark/widgets/attention_lane.hpp"
 #include "earmark/widgets/lane_stack.hpp"
@@ -21,11 +22,10 @@ namespace {
 
 namespace fs = std::filesystem;
 
-const fs::path pairs = fs::path(EARMARK_SOURCE_DIR) / "samples" / "pairs";
 
 ModelAttentionPtr pairsAttention() {
-    static const ModelAttentionPtr a = loadModelAttention(QString::fromStdString((pairs / "attention.npy").string()),
-                                                          QString::fromStdString((pairs / "attention-tokens.txt").string()));
+    static const ModelAttentionPtr a = loadModelAttention(test::pairsSample("attention.npy"),
+                                                          test::pairsSample("attention-tokens.txt"));
     return a;
 }
 
@@ -105,9 +105,9 @@ TEST(MainWindow, OpensAnAttentionMatrixWithItsTokenTier) {
     window.resize(1200, 900);
     window.show();
     QSignalSpy modelSettled(&window, &gui::MainWindow::modelSettled);
-    window.openTakes({{"a", QString::fromStdString((pairs / "build-a.wav").string()), {}}});
-    window.openAttention(QString::fromStdString((pairs / "attention.npy").string()),
-                         QString::fromStdString((pairs / "attention-tokens.txt").string()));
+    window.openTakes({{"a", test::pairsSample("build-a.wav"), {}}});
+    window.openAttention(test::pairsSample("attention.npy"),
+                         test::pairsSample("attention-tokens.txt"));
     ASSERT_TRUE(modelSettled.wait(60000));
     EXPECT_TRUE(modelSettled.at(0).at(0).toBool());
     EXPECT_TRUE(window.laneStack()->isLaneVisible("attention"));

@@ -5,6 +5,7 @@
 #include "earmark/widgets/compare_window.hpp"
 #include "earmark/widgets/view_state.hpp"
 #include "image_checks.hpp"
+#include "sample_take.hpp"
 
 #include <QApplication>
 #include <QFile>
@@ -26,15 +27,14 @@ namespace {
 
 namespace fs = std::filesystem;
 
-const fs::path pairs = fs::path(EARMARK_SOURCE_DIR) / "samples" / "pairs";
 const QString script = QStringLiteral("The evening ferry to Wrenholm leaves from berth three at half past six.");
 
 TakePairRequest pairsRequest() {
     TakePairRequest r;
-    r.pathA = QString::fromStdString((pairs / "build-a.wav").string());
-    r.pathB = QString::fromStdString((pairs / "build-b.wav").string());
+    r.pathA = test::pairsSample("build-a.wav");
+    r.pathB = test::pairsSample("build-b.wav");
     r.text = script;
-    r.wordsA = QString::fromStdString((pairs / "build-a.words.json").string());
+    r.wordsA = test::pairsSample("build-a.words.json");
     return r;
 }
 
@@ -44,7 +44,7 @@ const TakePairPtr& samplePair() {
 }
 
 QStringList wordsOfA() {
-    QFile f(QString::fromStdString((pairs / "build-a.words.json").string()));
+    QFile f(test::pairsSample("build-a.words.json"));
     EXPECT_TRUE(f.open(QIODevice::ReadOnly));
     QStringList out;
     for (const auto& w : QJsonDocument::fromJson(f.readAll()).object()["words"].toArray()) out << w.toObject()["text"].toString();
@@ -129,7 +129,7 @@ TEST(CompareWindow, OpensInTheBackgroundAndReportsAMissingFile) {
     CompareWindow window;
     QSignalSpy settled(&window, &CompareWindow::pairSettled);
     TakePairRequest r = pairsRequest();
-    r.pathB = QString::fromStdString((pairs / "missing.wav").string());
+    r.pathB = test::pairsSample("missing.wav");
     window.open(r);
     ASSERT_TRUE(settled.wait(60000));
     EXPECT_FALSE(settled.at(0).at(0).toBool());

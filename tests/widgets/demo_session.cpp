@@ -2,7 +2,7 @@
 
 #include <filesystem>
 
-namespace earmark::widgets::test {
+namespace earmark::test {
 
 DemoSession::DemoSession() {
     namespace fs = std::filesystem;
@@ -12,4 +12,4 @@ DemoSession::DemoSession() {
     path = QString::fromStdString((dir.path() / "demo.earmark").string());
 }
 
-}  // namespace earmark::widgets::test
+}  // namespace earmark::test

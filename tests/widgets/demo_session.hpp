@@ -6,7 +6,7 @@
 
 #include <QString>
 
-namespace earmark::widgets::test {
+namespace earmark::test {
 
 struct DemoSession {
     DemoSession();
@@ -14,4 +14,4 @@ struct DemoSession {
     QString path;  // the copied .earmark file
 };
 
-}  // namespace earmark::widgets::test
+}  // namespace earmark::test

@@ -8,12 +8,13 @@
 
 #include <algorithm>
 
-namespace earmark::widgets::test {
+namespace earmark::test {
 
-inline int distinctColours(const QImage& image, const QRect& area) {
+// Every `stride`-th pixel of every `stride`-th row of `area`.
+inline int distinctColours(const QImage& image, const QRect& area, int stride = 1) {
     QSet<QRgb> colours;
-    for (int y = area.top(); y <= area.bottom(); ++y)
-        for (int x = area.left(); x <= area.right(); ++x) colours.insert(image.pixel(x, y));
+    for (int y = area.top(); y <= area.bottom(); y += stride)
+        for (int x = area.left(); x <= area.right(); x += stride) colours.insert(image.pixel(x, y));
     return colours.size();
 }
 
@@ -24,4 +25,4 @@ inline int differingPixels(const QImage& a, const QImage& b) {
     return n;
 }
 
-}  // namespace earmark::widgets::test
+}  // namespace earmark::test

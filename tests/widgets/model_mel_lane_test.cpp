@@ -3,6 +3,7 @@
 // 197–242 (2.287–2.821 s) — samples/README.md and samples/pairs/planted.txt,
 // the truth the lanes are checked against. Also the "ember" diverging map.
 #include "main_window.hpp"
+#include "sample_take.hpp"
 
 #include "earmark/widgets/colour_map.hpp"
 #include "earmark/widgets/lane_stack.hpp"
@@ -24,7 +25,6 @@ namespace {
 
 namespace fs = std::filesystem;
 
-const fs::path pairs = fs::path(EARMARK_SOURCE_DIR) / "samples" / "pairs";
 constexpr double plantedStartS = 2.287, plantedEndS = 2.821;  // planted.txt
 constexpr double plantedLowHz = 1200.0, plantedHighHz = 2000.0;
 
@@ -56,14 +56,14 @@ struct PairsMel {
 const PairsMel& pairsMel() {
     static const PairsMel p = [] {
         PairsMel out;
-        out.audio = loadTake(QString::fromStdString((pairs / "build-a.wav").string()));
-        out.mel = loadModelMel(QString::fromStdString((pairs / "predicted-mel.npy").string()), *out.audio);
+        out.audio = loadTake(test::pairsSample("build-a.wav"));
+        out.mel = loadModelMel(test::pairsSample("predicted-mel.npy"), *out.audio);
         return out;
     }();
     return p;
 }
 
-QImage render(Lane& lane) {
+QImage renderModelLane(Lane& lane) {
     lane.resize(1000, 260);
     lane.show();
     QApplication::processEvents();
@@ -87,11 +87,11 @@ TEST(ModelMelLane, BothLanesRenderNonBlank) {
         ViewState view;
         view.resetForDuration(p.audio->duration());
         ModelMelLane empty(part, &view);
-        const QImage blank = render(empty);
+        const QImage blank = renderModelLane(empty);
         ModelMelLane lane(part, &view);
         lane.setTake(p.audio);
         lane.setModelMel(p.mel);
-        const QImage image = render(lane);
+        const QImage image = renderModelLane(lane);
         EXPECT_GE(test::distinctColours(image, lane.plotRect()), 30);
         EXPECT_GT(test::differingPixels(image, blank), lane.plotRect().width() * 20);
     }
@@ -104,7 +104,7 @@ TEST(ModelMelLane, ThePlantedPatchIsWhereTheDifferenceIsBrightest) {
     ModelMelLane lane(ModelMelPart::Difference, &view);
     lane.setTake(p.audio);
     lane.setModelMel(p.mel);
-    const QImage image = render(lane);
+    const QImage image = renderModelLane(lane);
     // Read the pixels back, leaving out the title and legend strip on top and
     // the warning strip at the bottom.
     const QRect plot = lane.plotRect().adjusted(0, 34, 0, -24);
@@ -141,8 +141,8 @@ TEST(MainWindow, OpensAPredictedMelUnderTheTakesMel) {
     window.show();
     QSignalSpy settled(&window, &gui::MainWindow::takeSettled);
     QSignalSpy modelSettled(&window, &gui::MainWindow::modelSettled);
-    window.openTakes({{"a", QString::fromStdString((pairs / "build-a.wav").string()), {}}});
-    window.openPredictedMel(QString::fromStdString((pairs / "predicted-mel.npy").string()));
+    window.openTakes({{"a", test::pairsSample("build-a.wav"), {}}});
+    window.openPredictedMel(test::pairsSample("predicted-mel.npy"));
     ASSERT_TRUE(modelSettled.wait(60000));
     EXPECT_TRUE(modelSettled.at(0).at(0).toBool());
     EXPECT_TRUE(window.laneStack()->isLaneVisible("predicted-mel"));
@@ -153,7 +153,7 @@ TEST(MainWindow, OpensAPredictedMelUnderTheTakesMel) {
     ASSERT_NE(spectrogram, nullptr);
     EXPECT_EQ(spectrogram->look().kind, SpectrogramKind::Mel);
     // Another take drops the prediction.
-    window.openTakes({{"b", QString::fromStdString((pairs / "build-b.wav").string()), {}}});
+    window.openTakes({{"b", test::pairsSample("build-b.wav"), {}}});
     EXPECT_FALSE(window.laneStack()->isLaneVisible("mel-difference"));
     EXPECT_FALSE(window.melDifferenceLane()->modelMel());
 }
@@ -161,8 +161,8 @@ TEST(MainWindow, OpensAPredictedMelUnderTheTakesMel) {
 TEST(MainWindow, AMissingPredictedMelIsReported) {
     gui::MainWindow window;
     QSignalSpy modelSettled(&window, &gui::MainWindow::modelSettled);
-    window.openTakes({{"a", QString::fromStdString((pairs / "build-a.wav").string()), {}}});
-    window.openPredictedMel(QString::fromStdString((pairs / "no-such.npy").string()));
+    window.openTakes({{"a", test::pairsSample("build-a.wav"), {}}});
+    window.openPredictedMel(test::pairsSample("no-such.npy"));
     ASSERT_TRUE(modelSettled.wait(60000));
     EXPECT_FALSE(modelSettled.at(0).at(0).toBool());
     EXPECT_FALSE(window.laneStack()->isLaneVisible("mel-difference"));

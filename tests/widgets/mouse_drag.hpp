@@ -6,7 +6,7 @@
 #include <QMouseEvent>
 #include <QTest>
 
-namespace earmark::widgets::test {
+namespace earmark::test {
 
 inline void dragMouse(QWidget* widget, QPoint from, QPoint to) {
     QTest::mousePress(widget, Qt::LeftButton, {}, from);
@@ -15,4 +15,4 @@ inline void dragMouse(QWidget* widget, QPoint from, QPoint to) {
     QTest::mouseRelease(widget, Qt::LeftButton, {}, to);
 }
 
-}  // namespace earmark::widgets::test
+}  // namespace earmark::test

@@ -3,7 +3,7 @@
 #include "earmark/io/audio_file.hpp"
 #include "support/test_signals.hpp"
 
-namespace earmark::widgets::test {
+namespace earmark::test {
 
 const SampleTake& sampleTake() {
     static SampleTake t;
@@ -16,12 +16,16 @@ const SampleTake& sampleTake() {
             16000.0);
         t.path = QString::fromStdString(t.dir.file("voice.wav"));
         writeWav(t.path.toStdString(), voice.signal);
-        t.audio = loadTake(t.path);
-        t.tracks = analyseTake(*t.audio, AnalysisSettings{});
+        t.audio = widgets::loadTake(t.path);
+        t.tracks = widgets::analyseTake(*t.audio, widgets::AnalysisSettings{});
         return true;
     }();
     (void)made;
     return t;
 }
 
-}  // namespace earmark::widgets::test
+QString pairsSample(const std::string& name) {
+    return QString::fromStdString(std::string(EARMARK_SOURCE_DIR) + "/samples/pairs/" + name);
+}
+
+}  // namespace earmark::test

@@ -7,17 +7,22 @@
 
 #include <QString>
 
-namespace earmark::widgets::test {
+#include <string>
+
+namespace earmark::test {
 
 struct SampleTake {
     earmark::test::TempDir dir;
     QString path;
-    TakeAudioPtr audio;
-    TakeTracksPtr tracks;
+    widgets::TakeAudioPtr audio;
+    widgets::TakeTracksPtr tracks;
 };
 
 // 0.2 s silence, 0.6 s voiced 120→180 Hz, 0.15 s noise, 0.2 s silence,
 // 0.5 s voiced 200→140 Hz, 0.15 s silence, at 16 kHz.
 const SampleTake& sampleTake();
 
-}  // namespace earmark::widgets::test
+// The path of a file of samples/pairs, the bundled two-build example.
+QString pairsSample(const std::string& name);
+
+}  // namespace earmark::test

@@ -5,6 +5,7 @@
 #include "earmark/core/error.hpp"
 #include "earmark/widgets/lane.hpp"
 #include "sample_take.hpp"
+#include "image_checks.hpp"
 
 #include <QImage>
 #include <QSet>
@@ -44,12 +45,7 @@ SpanImageContent sampleContent() {
     return SpanImageContent{sample.audio, sample.tracks, take, sampleMark(), tiers, TimeRange{0.15, 0.85}};
 }
 
-int distinctColours(const QImage& image, const QRect& area, int stride = 1) {
-    QSet<QRgb> colours;
-    for (int y = area.top(); y <= area.bottom(); y += stride)
-        for (int x = area.left(); x <= area.right(); x += stride) colours.insert(image.pixel(x, y));
-    return colours.size();
-}
+using test::distinctColours;
 
 // Share of pixels in `columns` × the lanes' rows that differ between two images.
 double differingShare(const QImage& a, const QImage& b, int x0, int x1, const QRect& rows) {

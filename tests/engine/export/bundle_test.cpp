@@ -27,13 +27,13 @@ using test::draftAt;
 using test::slurp;
 using test::TempDir;
 
-struct Fixture {
+struct BundleFixture {
     TempDir dir;
     Session session = Session::create(dir.file("b.earmark"));
     Signal noise16 = test::whiteNoise(2.0, 16000, 0.2, 1);
     Signal noise22 = test::whiteNoise(3.0, 22050, 0.2, 2);
     TakeId a = 0, b = 0;
-    Fixture() {
+    BundleFixture() {
         writeWav(dir.file("a.wav"), noise16);
         writeWav(dir.file("b.wav"), noise22);
         // Reload: the bundle cuts from the file as stored (16-bit), not from these floats.
@@ -48,7 +48,7 @@ struct Fixture {
 };
 
 TEST(Bundle, ClipsHaveTheSpanPlusPaddingAtTheSourceRate) {
-    Fixture f;
+    BundleFixture f;
     const std::string out = f.dir.file("bundle");
     const BundleResult r = writeBundle(f.session, out);
     EXPECT_EQ(r.clips, 3);
@@ -110,7 +110,7 @@ TEST(Bundle, FadeIsARaisedCosineOverTenMilliseconds) {
 }
 
 TEST(Bundle, ManifestsMatchTheSchemaAndEachOther) {
-    Fixture f;
+    BundleFixture f;
     const std::string out = f.dir.file("bundle");
     writeBundle(f.session, out);
     const auto schema = test::SchemaSubset(
@@ -128,7 +128,7 @@ TEST(Bundle, ManifestsMatchTheSchemaAndEachOther) {
 }
 
 TEST(Bundle, ImageRendererGetsEachClipSpan) {
-    Fixture f;
+    BundleFixture f;
     std::vector<std::pair<double, double>> spans;
     const BundleImageRenderer render = [&](const BundleImageRequest& req) {
         spans.emplace_back(req.clipStartSeconds, req.clipEndSeconds);
@@ -147,7 +147,7 @@ TEST(Bundle, ImageRendererGetsEachClipSpan) {
 }
 
 TEST(Bundle, NeverReplacesAFolderBySurprise) {
-    Fixture f;
+    BundleFixture f;
     const fs::path out = f.dir.file("bundle");
     writeBundle(f.session, out.string());
     const std::string first = slurp(out / "manifest.json");
@@ -187,7 +187,7 @@ TEST(Bundle, NeverReplacesAFolderBySurprise) {
 }
 
 TEST(Bundle, MissingAudioOrCancelLeavesNothing) {
-    Fixture f;
+    BundleFixture f;
     fs::rename(f.dir.file("b.wav"), f.dir.file("moved.wav"));
     try {
         writeBundle(f.session, f.dir.file("bundle"));

@@ -32,12 +32,12 @@ test::SchemaSubset loadSchema() {
         nlohmann::json::parse(slurp(std::string(EARMARK_SOURCE_DIR) + "/docs/defect-list.schema.json")));
 }
 
-struct Fixture {
+struct DefectListFixture {
     TempDir dir;
     Session session = Session::create(dir.file("list.earmark"));
     TakeId a = 0, b = 0;
     MarkId m1 = 0, m2 = 0, m3 = 0;
-    Fixture() {
+    DefectListFixture() {
         const auto ids = session.addTakes({{writeTake(dir.file("a.wav"), 2.0), "line-a", "Mind the gap, please.", "v2"},
                                            {writeTake(dir.file("b b.wav"), 3.0), "", "", ""}});
         a = ids[0], b = ids[1];
@@ -74,7 +74,7 @@ nlohmann::json parseWithPython(const TempDir& dir, const std::string& csvText) {
 }
 
 TEST(DefectList, CsvReadsBackFieldForFieldInPython) {
-    Fixture f;
+    DefectListFixture f;
     const DefectList list = collectDefects(f.session);
     const std::string csv = defectListToCsv(list);
     const auto rows = parseWithPython(f.dir, csv);
@@ -118,7 +118,7 @@ TEST(DefectList, CsvReadsBackFieldForFieldInPython) {
 }
 
 TEST(DefectList, JsonConformsToTheCommittedSchema) {
-    Fixture f;
+    DefectListFixture f;
     const auto schema = loadSchema();
     EXPECT_THAT(schema.unknownKeywords(), IsEmpty());  // the validator checks every keyword the schema uses
     const auto doc = nlohmann::json::parse(defectListToJson(collectDefects(f.session)));
@@ -136,7 +136,7 @@ TEST(DefectList, JsonConformsToTheCommittedSchema) {
 }
 
 TEST(DefectList, SchemaCheckRejectsBrokenDocuments) {
-    Fixture f;
+    DefectListFixture f;
     const auto schema = loadSchema();
     const auto good = nlohmann::json::parse(defectListToJson(collectDefects(f.session)));
     auto broken = [&](auto&& change) {
@@ -155,7 +155,7 @@ TEST(DefectList, SchemaCheckRejectsBrokenDocuments) {
 }
 
 TEST(DefectList, OneTakeOnlyAndEmptySessions) {
-    Fixture f;
+    DefectListFixture f;
     const DefectList onlyB = collectDefects(f.session, f.b);
     ASSERT_EQ(onlyB.rows.size(), 1u);
     EXPECT_EQ(onlyB.rows[0].mark.id, f.m3);

@@ -15,17 +15,12 @@
 namespace earmark::listening {
 namespace {
 
-using test::designOf;
+using fixtures::designOf;
 
-constexpr double kTol = 1e-9;
-
-nlohmann::json reference() {
-    std::ifstream in(std::string(EARMARK_TEST_DATA_DIR) + "/listening/stats_reference.json");
-    return nlohmann::json::parse(in);
-}
+using fixtures::kTol;
 
 TEST(Analysis, MosRoundMatchesScipy) {
-    const auto round = reference()["mos_round"];
+    const auto round = fixtures::statsReference()["mos_round"];
     TestDesign d = designOf(TestKind::Mos, {{"north", SystemRole::Candidate}, {"south", SystemRole::Candidate},
                                             {"west", SystemRole::Candidate}},
                             5, 4);
@@ -60,7 +55,7 @@ TEST(Analysis, MosRoundMatchesScipy) {
 }
 
 TEST(Analysis, AbRoundMatchesScipyBinomtest) {
-    const auto round = reference()["ab_round"];
+    const auto round = fixtures::statsReference()["ab_round"];
     TestDesign d = designOf(TestKind::Ab, {{"a", SystemRole::Candidate}, {"b", SystemRole::Candidate},
                                            {"c", SystemRole::Candidate}},
                             1, 1);

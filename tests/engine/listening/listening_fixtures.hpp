@@ -3,10 +3,27 @@
 
 #include "earmark/listening/test_design.hpp"
 
+#include <nlohmann/json.hpp>
+
+#include <fstream>
+
 #include <string>
 #include <vector>
 
-namespace earmark::listening::test {
+namespace earmark::listening::fixtures {
+
+// Agreement asked of every value against scipy.stats.
+inline constexpr double kTol = 1e-9;
+
+// tests/data/listening/stats_reference.json: scipy.stats values written by
+// tests/data/make_listening_reference.py.
+inline const nlohmann::json& statsReference() {
+    static const nlohmann::json j = [] {
+        std::ifstream in(std::string(EARMARK_TEST_DATA_DIR) + "/listening/stats_reference.json");
+        return nlohmann::json::parse(in);
+    }();
+    return j;
+}
 
 // `lines` lines "l01"…; systems as given (name, role); fake audio paths.
 inline TestDesign designOf(TestKind kind, const std::vector<std::pair<std::string, SystemRole>>& systems, int lines,
@@ -37,4 +54,4 @@ inline TestDesign mushraDesign(int lines, int raters, std::uint64_t seed = 7) {
                     lines, raters, seed);
 }
 
-}  // namespace earmark::listening::test
+}  // namespace earmark::listening::fixtures

@@ -13,8 +13,8 @@
 namespace earmark::listening {
 namespace {
 
-using test::designOf;
-using test::mushraDesign;
+using fixtures::designOf;
+using fixtures::mushraDesign;
 
 // Max − min over positions of how often `system` sits at each position of
 // main trials with `width` takes.

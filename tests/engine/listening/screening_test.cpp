@@ -11,8 +11,8 @@
 namespace earmark::listening {
 namespace {
 
-using test::designOf;
-using test::mushraDesign;
+using fixtures::designOf;
+using fixtures::mushraDesign;
 
 // One rater's MUSHRA answers on `lines` lines: a careful rater, except that
 // the hidden reference gets `refLow` on the first `refFails` lines and the

@@ -3,6 +3,7 @@
 #include "earmark/core/error.hpp"
 #include "earmark/listening/distributions.hpp"
 #include "earmark/listening/hypothesis_tests.hpp"
+#include "listening_fixtures.hpp"
 
 #include <gtest/gtest.h>
 #include <nlohmann/json.hpp>
@@ -13,21 +14,13 @@
 namespace earmark::listening {
 namespace {
 
-constexpr double kTol = 1e-9;
-
-const nlohmann::json& reference() {
-    static const nlohmann::json j = [] {
-        std::ifstream in(std::string(EARMARK_TEST_DATA_DIR) + "/listening/stats_reference.json");
-        return nlohmann::json::parse(in);
-    }();
-    return j;
-}
+using fixtures::kTol;
 
 std::vector<double> numbers(const nlohmann::json& j) { return j.get<std::vector<double>>(); }
 
 TEST(StudentT, CdfAndSurvivalMatchScipy) {
-    ASSERT_FALSE(reference()["t_points"].empty());
-    for (const auto& c : reference()["t_points"]) {
+    ASSERT_FALSE(fixtures::statsReference()["t_points"].empty());
+    for (const auto& c : fixtures::statsReference()["t_points"]) {
         const double t = c["t"], nu = c["nu"];
         EXPECT_NEAR(studentTCdf(t, nu), c["cdf"].get<double>(), kTol) << "t=" << t << " nu=" << nu;
         EXPECT_NEAR(studentTSf(t, nu), c["sf"].get<double>(), kTol) << "t=" << t << " nu=" << nu;
@@ -35,7 +28,7 @@ TEST(StudentT, CdfAndSurvivalMatchScipy) {
 }
 
 TEST(StudentT, QuantileMatchesScipy) {
-    for (const auto& c : reference()["t_quantiles"]) {
+    for (const auto& c : fixtures::statsReference()["t_quantiles"]) {
         const double p = c["p"], nu = c["nu"];
         EXPECT_NEAR(studentTQuantile(p, nu), c["q"].get<double>(), kTol) << "p=" << p << " nu=" << nu;
     }
@@ -48,7 +41,7 @@ TEST(StudentT, RefusesBadArguments) {
 }
 
 TEST(MeanInterval, MatchesScipyT) {
-    for (const auto& c : reference()["mean_intervals"]) {
+    for (const auto& c : fixtures::statsReference()["mean_intervals"]) {
         const MeanInterval m = meanInterval(numbers(c["values"]));
         EXPECT_NEAR(m.mean, c["mean"].get<double>(), kTol);
         EXPECT_NEAR(m.sd, c["sd"].get<double>(), kTol);
@@ -65,7 +58,7 @@ TEST(MeanInterval, UndefinedBelowTwoValues) {
 }
 
 TEST(PairedT, MatchesScipyTtestRel) {
-    for (const auto& c : reference()["paired_t"]) {
+    for (const auto& c : fixtures::statsReference()["paired_t"]) {
         const auto x = numbers(c["x"]), y = numbers(c["y"]);
         std::vector<double> d(x.size());
         for (std::size_t i = 0; i < x.size(); ++i) d[i] = x[i] - y[i];
@@ -84,7 +77,7 @@ TEST(PairedT, UndefinedWithoutSpread) {
 
 TEST(Wilcoxon, MatchesScipyExactAndApprox) {
     int exact = 0, approx = 0;
-    for (const auto& c : reference()["wilcoxon"]) {
+    for (const auto& c : fixtures::statsReference()["wilcoxon"]) {
         const TestResult r = wilcoxonSignedRank(numbers(c["d"]));
         ASSERT_TRUE(r.defined);
         EXPECT_EQ(r.method, c["method"].get<std::string>());
@@ -103,7 +96,7 @@ TEST(Wilcoxon, AllZeroDifferencesAreUndefined) {
 }
 
 TEST(Binomial, MatchesScipyBinomtest) {
-    for (const auto& c : reference()["binomial"]) {
+    for (const auto& c : fixtures::statsReference()["binomial"]) {
         const BinomialResult r = binomialTest(c["k"], c["n"]);
         EXPECT_NEAR(r.p, c["p"].get<double>(), kTol) << c.dump();
         EXPECT_NEAR(r.low, c["low"].get<double>(), kTol) << c.dump();
@@ -112,7 +105,7 @@ TEST(Binomial, MatchesScipyBinomtest) {
 }
 
 TEST(Holm, MatchesStepDownDefinition) {
-    for (const auto& c : reference()["holm"]) {
+    for (const auto& c : fixtures::statsReference()["holm"]) {
         const auto adjusted = holmAdjust(numbers(c["p"]));
         const auto expected = numbers(c["adjusted"]);
         ASSERT_EQ(adjusted.size(), expected.size());

@@ -27,13 +27,8 @@ TEST(TextOutline, ParagraphsAndSentences) {
     EXPECT_TRUE(outlineText(" \n\n ... \n").paragraphs.empty());
 }
 
-const test::LongRead& read12() {
-    static const test::LongRead read = test::makeLongRead({.sentences = 12});
-    return read;
-}
-
 TEST(LongAlignment, SentencesAndParagraphsMatchThePlacement) {
-    const test::LongRead& read = read12();
+    const test::LongRead& read = test::twelveSentenceRead();
     int calls = 0;
     const ChunkAligner base = referenceWarpingAligner();
     const ChunkAligner counting = [&](const Signal& audio, const std::string& text, Progress p) {
@@ -66,7 +61,7 @@ TEST(LongAlignment, SentencesAndParagraphsMatchThePlacement) {
 }
 
 TEST(LongAlignment, TextCoveringHalfTheAudioIsBadInput) {
-    const test::LongRead& read = read12();
+    const test::LongRead& read = test::twelveSentenceRead();
     std::string half;
     for (int i = 0; i < 6; ++i) half += test::longReadSentence(i) + " ";
     try {
@@ -79,7 +74,7 @@ TEST(LongAlignment, TextCoveringHalfTheAudioIsBadInput) {
 }
 
 TEST(LongAlignment, TextLongerThanTheTakeIsBadInput) {
-    const test::LongRead& read = read12();
+    const test::LongRead& read = test::twelveSentenceRead();
     std::string twice = read.text + "\n\n" + read.text;
     EXPECT_THROW(alignLongText(read.audio, twice, referenceWarpingAligner()), InputError);
     EXPECT_THROW(alignLongText(read.audio, " ... ", referenceWarpingAligner()), InputError);

@@ -12,17 +12,8 @@
 namespace earmark {
 namespace {
 
-const test::LongRead& read12() {
-    static const test::LongRead read = [] {
-        test::LongReadPlan plan;
-        plan.sentences = 12;
-        return test::makeLongRead(plan);
-    }();
-    return read;
-}
-
 TEST(LongTakeReview, SeriesAndFindingsAsTheAnalysisWithoutText) {
-    const test::LongRead& read = read12();
+    const test::LongRead& read = test::twelveSentenceRead();
     const LongTakeReview r = reviewLongTake(read.audio, "  \n", LongformRules{}, referenceWarpingAligner());
     const LongformReport direct = analyseLongform(read.audio, {}, LongformRules{});
     EXPECT_EQ(r.series.windows.size(), direct.analysis.series.windows.size());
@@ -32,7 +23,7 @@ TEST(LongTakeReview, SeriesAndFindingsAsTheAnalysisWithoutText) {
 }
 
 TEST(LongTakeReview, TextGivesParagraphAndSentenceTiersAtTheSentences) {
-    const test::LongRead& read = read12();
+    const test::LongRead& read = test::twelveSentenceRead();
     const LongTakeReview r = reviewLongTake(read.audio, read.text, LongformRules{}, referenceWarpingAligner());
     ASSERT_TRUE(r.textTiers) << r.textProblem;
     const Tier* sentences = r.textTiers->find(kSentencesTier);
@@ -45,7 +36,7 @@ TEST(LongTakeReview, TextGivesParagraphAndSentenceTiersAtTheSentences) {
 }
 
 TEST(LongTakeReview, TextOfHalfTheTakeIsAReasonNotAnError) {
-    const test::LongRead& read = read12();
+    const test::LongRead& read = test::twelveSentenceRead();
     std::string half;
     for (int i = 0; i < 6; ++i) half += test::longReadSentence(i) + " ";
     const LongTakeReview r = reviewLongTake(read.audio, half, LongformRules{}, referenceWarpingAligner());

@@ -25,6 +25,12 @@
 
 namespace earmark::test {
 
+// Scoring half-window: covers the frames of Earmark's YIN at its defaults
+// (33.6 ms span) and aubio's (17.4 ms), plus margin.
+inline constexpr double kScoringHalfWindowSeconds = 0.02;
+// Rate of the synthetic voices of the YIN comparisons.
+inline constexpr double kSyntheticVoiceRate = 22050.0;
+
 struct FrameEstimate {
     double timeSeconds = 0.0;  // time the estimate describes (frame centre)
     double f0Hz = 0.0;         // 0 = unvoiced

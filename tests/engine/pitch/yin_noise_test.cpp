@@ -36,8 +36,6 @@
 namespace earmark {
 namespace {
 
-constexpr double kRate = 22050.0;
-constexpr double kHalfWindowSeconds = 0.02;  // as in yin_voice_test.cpp
 
 // Scores summed over takes: VDE and GPE over all frames; fine error as the
 // mean of the takes' medians.
@@ -80,14 +78,14 @@ TEST_P(HeldOutVoicing, MeetsTheBarsAndBeatsTheFixedBar) {
     std::vector<double> fineCommon, fineCommonFixed;
     for (std::uint32_t seed = 101; seed <= 109; ++seed) {
         const auto segments = test::randomUtterance(seed, static_cast<int>(seed % 3));
-        test::SyntheticVoice voice = test::synthesiseVoice(segments, kRate, seed);
+        test::SyntheticVoice voice = test::synthesiseVoice(segments, test::kSyntheticVoiceRate, seed);
         if (snrDb > 0) test::addNoiseAtSnr(voice.signal, snrDb, 500 + seed);
-        const auto boundaries = test::segmentBoundaries(segments, kRate);
+        const auto boundaries = test::segmentBoundaries(segments, test::kSyntheticVoiceRate);
         const auto adaptive = test::earmarkFrames(voice.signal);
         const auto plain = test::earmarkFrames(voice.signal, fixedBar);
-        ours.add(test::scoreTrack(voice, boundaries, adaptive, kHalfWindowSeconds));
-        fixed.add(test::scoreTrack(voice, boundaries, plain, kHalfWindowSeconds));
-        aubio.add(test::scoreTrack(voice, boundaries, test::aubioFrames(voice.signal, "yin"), kHalfWindowSeconds));
+        ours.add(test::scoreTrack(voice, boundaries, adaptive, test::kScoringHalfWindowSeconds));
+        fixed.add(test::scoreTrack(voice, boundaries, plain, test::kScoringHalfWindowSeconds));
+        aubio.add(test::scoreTrack(voice, boundaries, test::aubioFrames(voice.signal, "yin"), test::kScoringHalfWindowSeconds));
         ASSERT_EQ(adaptive.size(), plain.size());
         if (snrDb == 0) {
             for (std::size_t i = 0; i < adaptive.size(); ++i) ASSERT_EQ(adaptive[i].f0Hz, plain[i].f0Hz) << seed << " " << i;
@@ -96,7 +94,7 @@ TEST_P(HeldOutVoicing, MeetsTheBarsAndBeatsTheFixedBar) {
         // noise floor must not change their F0.
         for (std::size_t i = 0; i < adaptive.size(); ++i) {
             const double t = adaptive[i].timeSeconds;
-            if (plain[i].f0Hz <= 0.0 || adaptive[i].f0Hz <= 0.0 || !voice.fullyVoicedAround(t, kHalfWindowSeconds)) continue;
+            if (plain[i].f0Hz <= 0.0 || adaptive[i].f0Hz <= 0.0 || !voice.fullyVoicedAround(t, test::kScoringHalfWindowSeconds)) continue;
             ++commonFrames;
             fineCommon.push_back(std::fabs(adaptive[i].f0Hz / voice.f0At(t) - 1.0));
             fineCommonFixed.push_back(std::fabs(plain[i].f0Hz / voice.f0At(t) - 1.0));
@@ -185,8 +183,8 @@ TEST(NoiseVoicing, NoiseBurstsAboveANoiseFloorStayUnvoiced) {
             segments.push_back({Kind::Noise, 0.15, 0, 0, 0.01 * std::pow(10.0, levelDb / 20.0)});
     segments.push_back({Kind::Silence, 0.3, 0, 0, 0});
     for (std::uint32_t seed : {1u, 2u, 3u}) {
-        test::SyntheticVoice v = test::synthesiseVoice(segments, kRate, seed);
-        const Signal floor = test::whiteNoise(v.signal.durationSeconds(), kRate, 0.01, 40 + seed);
+        test::SyntheticVoice v = test::synthesiseVoice(segments, test::kSyntheticVoiceRate, seed);
+        const Signal floor = test::whiteNoise(v.signal.durationSeconds(), test::kSyntheticVoiceRate, 0.01, 40 + seed);
         for (std::size_t i = 0; i < v.signal.size(); ++i) v.signal.samples[i] += floor.samples[i];
         const PitchTrack t = analysePitch(v.signal);
         EXPECT_EQ(std::count_if(t.f0Hz.begin(), t.f0Hz.end(), [](float f) { return f > 0; }), 0) << seed;

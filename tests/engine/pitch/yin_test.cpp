@@ -25,8 +25,6 @@ namespace {
 using test::VoiceSegment;
 using Kind = VoiceSegment::Kind;
 
-// Half the span an Earmark frame reads at the defaults (33.6 ms), plus margin.
-constexpr double kHalfWindowSeconds = 0.02;
 
 double median(std::vector<double> v) {
     auto mid = v.begin() + static_cast<std::ptrdiff_t>(v.size() / 2);
@@ -43,7 +41,7 @@ TEST_P(PureTone, EveryInteriorFrameIsVoicedAtTheToneFrequency) {
     std::vector<double> errors;
     for (std::size_t i = 0; i < t.size(); ++i) {
         const double time = t.timeSeconds(i);
-        if (time < kHalfWindowSeconds || time > 1.0 - kHalfWindowSeconds) continue;
+        if (time < test::kScoringHalfWindowSeconds || time > 1.0 - test::kScoringHalfWindowSeconds) continue;
         ASSERT_TRUE(t.voiced(i)) << "frame at " << time << " s";
         errors.push_back(std::fabs(t.f0Hz[i] / freq - 1.0));
         EXPECT_LT(t.aperiodicity[i], 0.01);
@@ -219,7 +217,7 @@ TEST(AnalysePitch, StrongSecondHarmonicStaysOnTheRightOctave) {
             int wrong = 0, voicedFrames = 0;
             for (std::size_t i = 0; i < t.size(); ++i) {
                 const double time = t.timeSeconds(i);
-                if (time < kHalfWindowSeconds || time > 2.0 - kHalfWindowSeconds || !t.voiced(i)) continue;
+                if (time < test::kScoringHalfWindowSeconds || time > 2.0 - test::kScoringHalfWindowSeconds || !t.voiced(i)) continue;
                 ++voicedFrames;
                 wrong += std::fabs(t.f0Hz[i] / f0 - 1.0) > 0.2;
             }
@@ -239,7 +237,7 @@ test::PitchScores scoreSegments(const std::vector<VoiceSegment>& segments, doubl
     const PitchTrack t = analysePitch(v.signal);
     std::vector<test::FrameEstimate> frames;
     for (std::size_t i = 0; i < t.size(); ++i) frames.push_back({t.timeSeconds(i), t.f0Hz[i]});
-    return test::scoreTrack(v, test::segmentBoundaries(segments, rate), frames, kHalfWindowSeconds);
+    return test::scoreTrack(v, test::segmentBoundaries(segments, rate), frames, test::kScoringHalfWindowSeconds);
 }
 
 // Rise and fall at one semitone per 5 ms frame between steady stretches, in
@@ -268,7 +266,7 @@ TEST_P(FastGlide, ContinuityKeepsAGlideOfOneSemitonePerFrame) {
         Count c;
         for (std::size_t i = 0; i < t.size(); ++i) {
             const double time = t.timeSeconds(i);
-            if (!v.fullyVoicedAround(time, kHalfWindowSeconds)) continue;  // F0 is continuous here
+            if (!v.fullyVoicedAround(time, test::kScoringHalfWindowSeconds)) continue;  // F0 is continuous here
             ++c.scored;
             if (!t.voiced(i)) continue;
             ++c.voiced;

@@ -33,9 +33,6 @@ using test::earmarkFrames;
 using test::VoiceSegment;
 using Kind = VoiceSegment::Kind;
 
-constexpr double kRate = 22050.0;
-// Scoring half-window: covers both methods' frames (17.4 ms), plus margin.
-constexpr double kHalfWindowSeconds = 0.02;
 
 VoiceSegment voiced(double seconds, double f0Start, double f0End, double level = 0.3) {
     return {Kind::Voiced, seconds, f0Start, f0End, level};
@@ -77,17 +74,17 @@ class VoiceAccuracy : public ::testing::TestWithParam<std::tuple<int, Noise>> {}
 TEST_P(VoiceAccuracy, MeetsBarsAndMatchesOrBeatsAubio) {
     const auto [which, noise] = GetParam();
     const auto segments = speaker(which);
-    test::SyntheticVoice voice = test::synthesiseVoice(segments, kRate, 100 + static_cast<std::uint32_t>(which));
+    test::SyntheticVoice voice = test::synthesiseVoice(segments, test::kSyntheticVoiceRate, 100 + static_cast<std::uint32_t>(which));
     if (noise != Noise::Clean)
         test::addNoiseAtSnr(voice.signal, noise == Noise::Snr20 ? 20.0 : 10.0, 200 + static_cast<std::uint32_t>(which));
-    const auto boundaries = test::segmentBoundaries(segments, kRate);
+    const auto boundaries = test::segmentBoundaries(segments, test::kSyntheticVoiceRate);
 
     const auto ours = earmarkFrames(voice.signal);
     const auto yin = aubioFrames(voice.signal, "yin");
     const auto yinfast = aubioFrames(voice.signal, "yinfast");
-    const PitchScores e = test::scoreTrack(voice, boundaries, ours, kHalfWindowSeconds);
-    const PitchScores a = test::scoreTrack(voice, boundaries, yin, kHalfWindowSeconds);
-    const PitchScores f = test::scoreTrack(voice, boundaries, yinfast, kHalfWindowSeconds);
+    const PitchScores e = test::scoreTrack(voice, boundaries, ours, test::kScoringHalfWindowSeconds);
+    const PitchScores a = test::scoreTrack(voice, boundaries, yin, test::kScoringHalfWindowSeconds);
+    const PitchScores f = test::scoreTrack(voice, boundaries, yinfast, test::kScoringHalfWindowSeconds);
 
     const std::string label = std::string(speakerName(which)) + " voice, " + noiseName(noise);
     RecordProperty("earmark", describe(e));

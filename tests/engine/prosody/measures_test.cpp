@@ -16,7 +16,7 @@
 namespace earmark {
 namespace {
 
-constexpr double kHop = test::kProsodyHop;
+using test::kProsodyHop;
 using test::iv;
 
 struct Tracks {
@@ -31,14 +31,14 @@ struct Tracks {
 Tracks threeWords() {
     Tracks t;
     t.durationS = 3.0;
-    const auto frames = static_cast<std::size_t>(t.durationS / kHop) + 1;
-    t.pitch.hopSeconds = t.energy.hopSeconds = kHop;
+    const auto frames = static_cast<std::size_t>(t.durationS / kProsodyHop) + 1;
+    t.pitch.hopSeconds = t.energy.hopSeconds = kProsodyHop;
     t.pitch.f0Hz.assign(frames, 0.0f);
     t.pitch.confidence.assign(frames, 0.0f);
     t.pitch.aperiodicity.assign(frames, 1.0f);
     t.energy.db.assign(frames, -120.0f);
     for (std::size_t i = 0; i < frames; ++i) {
-        const double s = static_cast<double>(i) * kHop;
+        const double s = static_cast<double>(i) * kProsodyHop;
         if (s >= 0.5 && s < 1.0) {
             t.pitch.f0Hz[i] = static_cast<float>(100.0 * std::pow(2.0, (s - 0.5) / 0.5));
             t.energy.db[i] = -20.0f;
@@ -68,14 +68,14 @@ TEST(SpeechActivity, FindsSpeechPausesAndSilences) {
     EXPECT_NEAR(act.speechLevelDb, -12.0, 1e-6);
     EXPECT_NEAR(act.thresholdDb, -42.0, 1e-6);
     ASSERT_TRUE(act.hasSpeech());
-    EXPECT_NEAR(*act.speechStartS, 0.5, kHop);
-    EXPECT_NEAR(*act.speechEndS, 2.6, kHop);
+    EXPECT_NEAR(*act.speechStartS, 0.5, kProsodyHop);
+    EXPECT_NEAR(*act.speechEndS, 2.6, kProsodyHop);
     ASSERT_EQ(act.pauses.size(), 1u);
-    EXPECT_NEAR(act.pauses[0].startS, 1.4, kHop);
-    EXPECT_NEAR(act.pauses[0].seconds(), 0.6, kHop);
-    EXPECT_NEAR(act.leadingSilenceS(), 0.5, kHop);
-    EXPECT_NEAR(act.trailingSilenceS(), 0.4, kHop);
-    EXPECT_NEAR(act.articulationSeconds(), 1.5, 2 * kHop);
+    EXPECT_NEAR(act.pauses[0].startS, 1.4, kProsodyHop);
+    EXPECT_NEAR(act.pauses[0].seconds(), 0.6, kProsodyHop);
+    EXPECT_NEAR(act.leadingSilenceS(), 0.5, kProsodyHop);
+    EXPECT_NEAR(act.trailingSilenceS(), 0.4, kProsodyHop);
+    EXPECT_NEAR(act.articulationSeconds(), 1.5, 2 * kProsodyHop);
     // A gap shorter than the minimum pause is bridged.
     PauseParams longer;
     longer.minPauseSeconds = 0.7;
@@ -100,10 +100,10 @@ TEST(WordMeasures, GlideLevelAndUnvoicedWords) {
     EXPECT_EQ(rising.text, "Rising");  // the text's token, punctuation kept
     EXPECT_NEAR(rising.durationS, 0.5, 1e-12);
     EXPECT_NEAR(*rising.f0MinHz, 100.0, 1e-3);
-    EXPECT_NEAR(*rising.f0MaxHz, 200.0 * std::pow(2.0, -kHop / 0.5), 1e-3);  // last frame is one hop early
-    EXPECT_NEAR(*rising.f0RangeSt, 12.0 - 12.0 * kHop / 0.5, 1e-3);
+    EXPECT_NEAR(*rising.f0MaxHz, 200.0 * std::pow(2.0, -kProsodyHop / 0.5), 1e-3);  // last frame is one hop early
+    EXPECT_NEAR(*rising.f0RangeSt, 12.0 - 12.0 * kProsodyHop / 0.5, 1e-3);
     EXPECT_NEAR(*rising.f0SlopeStPerS, 24.0, 1e-6);  // 12 st over 0.5 s
-    EXPECT_NEAR(*rising.f0PeakPosition, 1.0, 2 * kHop / 0.5);
+    EXPECT_NEAR(*rising.f0PeakPosition, 1.0, 2 * kProsodyHop / 0.5);
     EXPECT_NEAR(*rising.energyMeanDb, -20.0, 1e-4);
     EXPECT_NEAR(rising.voicedFraction, 1.0, 1e-12);
     EXPECT_FALSE(rising.pauseBeforeS.has_value());
@@ -148,7 +148,7 @@ TEST(SpanMeasures, OneFunctionOneValue) {
     const auto pause = measureSpan(ctx, 1.5, 1.9);
     EXPECT_EQ(pause.wordCount, 0);
     ASSERT_TRUE(pause.pauseS.has_value());
-    EXPECT_NEAR(*pause.pauseS, 0.6, kHop);
+    EXPECT_NEAR(*pause.pauseS, 0.6, kProsodyHop);
     EXPECT_FALSE(pause.f0MeanHz.has_value());
 
     const auto both = measureSpan(ctx, 0.9, 1.1);
@@ -162,12 +162,12 @@ TEST(TakeMeasures, RatesPitchSpreadAndPauses) {
     // F0 spread uniformly over one octave in semitones (100 → 200 Hz) over 2 s of speech.
     Tracks t;
     t.durationS = 3.0;
-    const auto frames = static_cast<std::size_t>(t.durationS / kHop) + 1;
-    t.pitch.hopSeconds = t.energy.hopSeconds = kHop;
+    const auto frames = static_cast<std::size_t>(t.durationS / kProsodyHop) + 1;
+    t.pitch.hopSeconds = t.energy.hopSeconds = kProsodyHop;
     t.pitch.f0Hz.assign(frames, 0.0f);
     t.energy.db.assign(frames, -120.0f);
     for (std::size_t i = 0; i < frames; ++i) {
-        const double s = static_cast<double>(i) * kHop;
+        const double s = static_cast<double>(i) * kProsodyHop;
         if (s >= 0.5 && s < 2.5) {
             t.pitch.f0Hz[i] = static_cast<float>(100.0 * std::pow(2.0, (s - 0.5) / 2.0));
             t.energy.db[i] = -18.0f;
@@ -180,7 +180,7 @@ TEST(TakeMeasures, RatesPitchSpreadAndPauses) {
     level.loudnessLufs = -23.0;
     const auto m = measureTake(ctx, level);
     EXPECT_NEAR(m.durationS, 3.0, 1e-12);
-    EXPECT_NEAR(m.speechS, 2.0, 2 * kHop);
+    EXPECT_NEAR(m.speechS, 2.0, 2 * kProsodyHop);
     EXPECT_EQ(m.words, 6);
     EXPECT_EQ(m.syllables, 10);
     EXPECT_EQ(m.syllableSource, SyllableSource::Text);
@@ -191,8 +191,8 @@ TEST(TakeMeasures, RatesPitchSpreadAndPauses) {
     EXPECT_NEAR(*m.f0RangeSt, 0.9 * 12.0, 0.05);
     EXPECT_NEAR(*m.f0SpreadSt, 12.0 / std::sqrt(12.0), 0.01);
     EXPECT_EQ(m.pauseCount, 0);
-    EXPECT_NEAR(m.leadingSilenceS, 0.5, kHop);
-    EXPECT_NEAR(m.trailingSilenceS, 0.5, kHop);
+    EXPECT_NEAR(m.leadingSilenceS, 0.5, kProsodyHop);
+    EXPECT_NEAR(m.trailingSilenceS, 0.5, kProsodyHop);
     EXPECT_EQ(*m.level.loudnessLufs, -23.0);
 }
 

@@ -12,20 +12,20 @@
 namespace earmark {
 namespace {
 
-constexpr double kHop = test::kProsodyHop;
+using test::kProsodyHop;
 using test::iv;
 
 // A take of `seconds` with speech (−15 dB) in the given spans, F0 from `f0(t)` (0 = unvoiced).
 template <typename F0>
 ProsodyContext take(double seconds, const std::vector<std::pair<double, double>>& speech, F0 f0, Transcript tr = {}) {
-    const auto frames = static_cast<std::size_t>(seconds / kHop) + 1;
+    const auto frames = static_cast<std::size_t>(seconds / kProsodyHop) + 1;
     PitchTrack p;
     EnergyTrack e;
-    p.hopSeconds = e.hopSeconds = kHop;
+    p.hopSeconds = e.hopSeconds = kProsodyHop;
     p.f0Hz.assign(frames, 0.0f);
     e.db.assign(frames, -120.0f);
     for (std::size_t i = 0; i < frames; ++i) {
-        const double t = static_cast<double>(i) * kHop;
+        const double t = static_cast<double>(i) * kProsodyHop;
         for (const auto& [a, b] : speech)
             if (t >= a && t < b) {
                 e.db[i] = -15.0f;
@@ -67,8 +67,8 @@ TEST(Suspects, FlatWithoutWordsUsesPhrasesBetweenPauses) {
     ASSERT_NE(flat, nullptr);
     EXPECT_NEAR(flat->value, 0.9 * 0.5 * 2.4 / 3.0, 0.01);  // p5–p95 of a 0.4 st ramp
     EXPECT_DOUBLE_EQ(flat->threshold, 2.0);
-    EXPECT_NEAR(flat->startS, 0.3, kHop);
-    EXPECT_NEAR(flat->endS, 2.7, kHop);
+    EXPECT_NEAR(flat->startS, 0.3, kProsodyHop);
+    EXPECT_NEAR(flat->endS, 2.7, kProsodyHop);
     EXPECT_NE(flat->reason.find("flat: 0.4 st over 0.3–2.7 s (< 2 st)"), std::string::npos) << flat->reason;
 }
 
@@ -92,7 +92,7 @@ TEST(Suspects, PitchJumpInsideAVoicedRun) {
     const auto* jump = find(jumpAll, SuspectKind::PitchJump);
     ASSERT_NE(jump, nullptr);
     EXPECT_NEAR(jump->value, 12.0, 0.25);  // an octave, plus the contour's own step (≤ 0.19 st per frame)
-    EXPECT_NEAR(jump->endS, 1.0, kHop + 1e-9);
+    EXPECT_NEAR(jump->endS, 1.0, kProsodyHop + 1e-9);
 }
 
 TEST(Suspects, LongPauseButNotAfterASentenceEnd) {
@@ -100,7 +100,7 @@ TEST(Suspects, LongPauseButNotAfterASentenceEnd) {
     const auto pauseAll = suspectsOf(c);
     const auto* pause = find(pauseAll, SuspectKind::PauseTooLong);
     ASSERT_NE(pause, nullptr);
-    EXPECT_NEAR(pause->value, 1.3, 2 * kHop);
+    EXPECT_NEAR(pause->value, 1.3, 2 * kProsodyHop);
     Transcript tr;
     tr.text = "First part done. Then more.";
     tr.words = {iv(0.3, 0.7, "First"), iv(0.7, 1.1, "part"), iv(1.1, 1.5, "done"), iv(2.8, 3.2, "Then"), iv(3.2, 3.7, "more")};
@@ -144,7 +144,7 @@ TEST(Suspects, LevelsSilencesAndTruncation) {
     ASSERT_NE(find(s, SuspectKind::Clipping), nullptr);
     EXPECT_DOUBLE_EQ(find(s, SuspectKind::Clipping)->value, 50.0);
     ASSERT_NE(find(s, SuspectKind::LeadingSilence), nullptr);
-    EXPECT_NEAR(find(s, SuspectKind::LeadingSilence)->value, 2.0, kHop);
+    EXPECT_NEAR(find(s, SuspectKind::LeadingSilence)->value, 2.0, kProsodyHop);
     EXPECT_EQ(find(s, SuspectKind::TrailingSilence), nullptr);  // 1.0 s ≤ 1.5 s
     ASSERT_NE(find(s, SuspectKind::DcOffset), nullptr);
     EXPECT_EQ(find(s, SuspectKind::Truncation), nullptr);

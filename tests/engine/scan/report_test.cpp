@@ -7,6 +7,7 @@
 #include "earmark/scan/scan_report.hpp"
 #include "earmark/scan/scan_session.hpp"
 #include "earmark/store/session.hpp"
+#include "scan_rows.hpp"
 #include "support/temp_dir.hpp"
 #include "support/test_signals.hpp"
 
@@ -56,11 +57,7 @@ ScanSettings withoutWordRules() {
     return settings;
 }
 
-const ScanRow& rowOf(const ScanReport& r, const std::string& id) {
-    for (const auto& row : r.rows)
-        if (row.id == id) return row;
-    throw std::runtime_error("no row " + id);
-}
+using test::rowOf;
 
 TEST(ScanRun, KeepsInputOrderAndReportsBadFilesInTheirRow) {
     SmallSet set;

@@ -13,6 +13,7 @@
 #include "earmark/scan/scan_report.hpp"
 #include "earmark/scan/scan_session.hpp"
 #include "earmark/store/session.hpp"
+#include "scan_rows.hpp"
 #include "support/festival_takes.hpp"
 #include "support/temp_dir.hpp"
 
@@ -90,11 +91,7 @@ std::vector<std::string> wordColumnsOf(const std::string& csv) {
     return out;
 }
 
-const ScanRow& rowOf(const ScanReport& r, const std::string& id) {
-    for (const auto& row : r.rows)
-        if (row.id == id) return row;
-    throw std::runtime_error("no row " + id);
-}
+using test::rowOf;
 
 class WordChecksPerVoice : public ::testing::TestWithParam<std::string> {};
 
