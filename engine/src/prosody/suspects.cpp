@@ -382,8 +382,8 @@ std::vector<TakeSuspect> findArtefactSuspects(const Signal& signal, const Prosod
         const auto& p = rules.noiseBurst.params;
         add(SuspectKind::NoiseBurst, findNoiseBursts(signal, c.pitch(), level, p, progress.sub(0.5, 0.7)),
             p.minExcessDb, "dB", [&](const ArtefactEvent& e) {
-                return num(e.value, 1) + " dB more energy above " + num(p.bandHz / 1000, 1) +
-                       " kHz than around it (≥ " + num(p.minExcessDb) + " dB)";
+                return "a burst of noise: the band above " + num(p.bandHz / 1000, 1) + " kHz " + num(e.value, 1) +
+                       " dB louder than around it across its width (≥ " + num(p.minExcessDb) + " dB)";
             });
     }
     if (rules.buzz.enabled) {

@@ -102,17 +102,30 @@ TEST(ArtefactDetection, SingleSampleClicksFromMinus20Dbfs) {
     EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
 }
 
-TEST(ArtefactDetection, HighPassedNoiseBursts) {
-    const auto tally = evaluate(
+// 20 ms bursts `belowSpeechDb` under the speech level at 20 times per take
+// drawn with `seed`.
+Tally noiseBurstTally(unsigned seed, double belowSpeechDb) {
+    return evaluate(
         "noise-burst", bursts, 0.0,
-        [](const VoiceTake& t) { return test::plantingTimes(t, 0.03, 0.05, 30.0, true, 0.6, 20, 12); },
-        [](Signal& s, double t, std::size_t i, double speechLevelDb) {
-            return test::plantNoiseBurst(s, t, 0.02, 4000.0, speechLevelDb - 10.0, 100 + static_cast<unsigned>(i));
+        [seed](const VoiceTake& t) { return test::plantingTimes(t, 0.03, 0.05, 30.0, true, 0.6, 20, seed); },
+        [belowSpeechDb](Signal& s, double t, std::size_t i, double speechLevelDb) {
+            return test::plantNoiseBurst(s, t, 0.02, 4000.0, speechLevelDb - belowSpeechDb, 100 + static_cast<unsigned>(i));
         });
-    // Below the bar (measured 56.7 % found, 4.4 false per 5 min): the rule is
-    // off by default until the detector is better. These limits keep what it does.
-    EXPECT_GE(tally.foundShare(), 0.55);
-    EXPECT_LE(tally.falsePerFiveMinutes(), 5.0);
+}
+
+TEST(ArtefactDetection, HighPassedNoiseBursts) {
+    // Measured 90.0 % found, 0.55 false per 5 min (one event, kal_diphone).
+    const auto tally = noiseBurstTally(12, 10.0);
+    EXPECT_GE(tally.foundShare(), 0.9);
+    EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
+}
+
+// The thresholds were chosen on the times of seeds 12 and 31; these times
+// were not looked at, and the bursts are 5 dB quieter (measured 89.2 %).
+TEST(ArtefactDetection, QuieterNoiseBurstsAtOtherTimes) {
+    const auto tally = noiseBurstTally(47, 15.0);
+    EXPECT_GE(tally.foundShare(), 0.85);
+    EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
 }
 
 TEST(ArtefactDetection, HarmonicsReplacedByNoise) {

@@ -106,7 +106,7 @@ struct ScanRules {
     LoudnessRule loudness;
     DcOffsetRule dcOffset;
     ClickRule click{{true, 2.0}, {}};
-    NoiseBurstRule noiseBurst{{false, 2.0}, {}};  // off: below the detection bar (docs/scan.md)
+    NoiseBurstRule noiseBurst{{true, 2.0}, {}};
     BuzzRule buzz{{true, 2.0}, {}};
     DropoutRule dropout{{false, 2.0}, {}};        // off: below the detection bar (docs/scan.md)
     PronunciationRule pronunciation;       // set-level, like loudness
