@@ -11,6 +11,8 @@ namespace earmark {
 
 void BuzzParams::validate() const {
     if (!(minAperiodicity > 0 && minAperiodicity <= 2)) throw ParamError("BuzzParams.minAperiodicity", "must be in (0, 2]");
+    if (!(unvoicedMinAperiodicity > 0 && unvoicedMinAperiodicity <= minAperiodicity))
+        throw ParamError("BuzzParams.unvoicedMinAperiodicity", "must be in (0, minAperiodicity]");
     if (!(maxBelowSpeechDb > 0 && std::isfinite(maxBelowSpeechDb)))
         throw ParamError("BuzzParams.maxBelowSpeechDb", "must be positive");
     if (!(lowHz >= 200 && lowHz <= 8000)) throw ParamError("BuzzParams.lowHz", "must be in [200, 8000]");
@@ -34,8 +36,11 @@ std::vector<ArtefactEvent> findBuzz(const Signal& signal, const PitchTrack& pitc
         // The pitch track's frame nearest in time (same hop up to rounding).
         const auto k = static_cast<std::size_t>(std::llround(static_cast<double>(f) * hop / pitch.hopSeconds));
         if (k >= pitch.size()) continue;
-        flags[f] = bands.totalDb[f] >= speechLevelDb - p.maxBelowSpeechDb &&
-                   pitch.aperiodicity[k] >= p.minAperiodicity && bands.lowDb[f] - bands.totalDb[f] >= lowShareDb;
+        const float aperiodicity = pitch.aperiodicity[k];
+        const bool aperiodic = aperiodicity >= p.minAperiodicity ||
+                               (!pitch.voiced(k) && aperiodicity >= p.unvoicedMinAperiodicity);
+        flags[f] = bands.totalDb[f] >= speechLevelDb - p.maxBelowSpeechDb && aperiodic &&
+                   bands.lowDb[f] - bands.totalDb[f] >= lowShareDb;
     }
     for (const auto& run : detail::flaggedRuns(flags, 1)) {
         const double seconds = static_cast<double>(run.length()) * hop;

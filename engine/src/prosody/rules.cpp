@@ -107,6 +107,7 @@ std::vector<Section> layout(ScanRules& r) {
                                                           {"max_low_dip_db", &r.noiseBurst.params.maxLowDipDb},
                                                           {"max_mid_rise_db", &r.noiseBurst.params.maxMidRiseDb}})},
         {"buzz", with(switchFields(r.buzz), {{"min_aperiodicity", &r.buzz.params.minAperiodicity},
+                                             {"unvoiced_min_aperiodicity", &r.buzz.params.unvoicedMinAperiodicity},
                                              {"max_below_speech_db", &r.buzz.params.maxBelowSpeechDb},
                                              {"low_hz", &r.buzz.params.lowHz},
                                              {"min_low_share", &r.buzz.params.minLowShare},

@@ -128,15 +128,30 @@ TEST(ArtefactDetection, QuieterNoiseBurstsAtOtherTimes) {
     EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
 }
 
-TEST(ArtefactDetection, HarmonicsReplacedByNoise) {
-    const auto tally = evaluate(
+// 150 ms stretches of voiced speech whose harmonics are replaced by noise,
+// at 12 times per take drawn with `seed`.
+Tally buzzTally(unsigned seed) {
+    return evaluate(
         "buzz", buzz, 0.0,
-        [](const VoiceTake& t) { return test::plantingTimes(t, 0.0, 0.15, 20.0, true, 0.8, 12, 13); },
+        [seed](const VoiceTake& t) { return test::plantingTimes(t, 0.0, 0.15, 20.0, true, 0.8, 12, seed); },
         [](Signal& s, double t, std::size_t i, double) {
             return test::plantNoiseForHarmonics(s, t, 0.15, 200 + static_cast<unsigned>(i));
         });
-    // Measured 83.3 % found, under the 90 % bar; no false stretch.
-    EXPECT_GE(tally.foundShare(), 0.8);
+}
+
+TEST(ArtefactDetection, HarmonicsReplacedByNoise) {
+    // Measured 91.7 % found, no false stretch (83.3 % before frames the track
+    // calls unvoiced counted at a lower aperiodicity).
+    const auto tally = buzzTally(13);
+    EXPECT_GE(tally.foundShare(), 0.9);
+    EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
+}
+
+// Times not looked at when the thresholds were chosen (measured 88.9 %; the
+// earlier rule found 77.8 % of these).
+TEST(ArtefactDetection, HarmonicsReplacedByNoiseAtOtherTimes) {
+    const auto tally = buzzTally(47);
+    EXPECT_GE(tally.foundShare(), 0.85);
     EXPECT_LE(tally.falsePerFiveMinutes(), 1.0);
 }
 

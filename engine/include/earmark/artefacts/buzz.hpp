@@ -6,7 +6,11 @@
 // ≈ 1 noise; the inverse of a harmonics-to-noise ratio).
 //
 // A frame is buzzy when (1) its energy is within `maxBelowSpeechDb` of the
-// speech level, (2) its aperiodicity is at least `minAperiodicity`, and (3)
+// speech level, (2) its aperiodicity is at least `minAperiodicity` — or at
+// least `unvoicedMinAperiodicity` where the track calls the frame unvoiced
+// (noise under a vowel's narrow formants looks periodic for a frame now and
+// then; the track's voicing decision, made over the whole take, follows the
+// frames around it) — and (3)
 // its spectrum is shaped like a vowel rather than a fricative: at least
 // `minLowShare` of its energy below `lowHz` (fricatives put theirs above
 // 2–4 kHz; phonetics textbooks, common practice). A run of buzzy frames
@@ -33,10 +37,12 @@ namespace earmark {
 
 struct BuzzParams {
     double minAperiodicity = 0.35;   // YIN d′ at or above this: no periodicity. Valid: (0, 2]
-    double maxBelowSpeechDb = 12.0;  // frame energy within this of the speech level, dB. Valid: > 0
+    double unvoicedMinAperiodicity = 0.25;  // the same for frames the track calls unvoiced.
+                                            // Valid: (0, minAperiodicity]
+    double maxBelowSpeechDb = 14.0;  // frame energy within this of the speech level, dB. Valid: > 0
     double lowHz = 1500.0;           // upper edge of the "vowel" band, Hz. Valid: [200, 8000]
     double minLowShare = 0.6;        // share of the frame's energy below lowHz. Valid: (0, 1]
-    double minSeconds = 0.06;        // shortest stretch. Valid: > 0
+    double minSeconds = 0.07;        // shortest stretch. Valid: > 0
     void validate() const;           // throws ParamError("BuzzParams.<field>")
 };
 
