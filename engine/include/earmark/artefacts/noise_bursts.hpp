@@ -12,19 +12,19 @@
 // excess is the MEDIAN over sub-bands of those rises: white noise lifts every
 // sub-band, while the voice's own high-frequency energy sits in a few (a
 // rise of the band's total alone hides a burst under the loudest sub-band).
-// A frame is flagged when
-//   - its excess is at least `minExcessDb`;
-//   - its high band is within `belowSpeechDb` of the speech level (quieter
-//     bursts are not worth a listener's time);
+// A frame is flagged when its excess is at least `minExcessDb` and its
+// high band is within `belowSpeechDb` of the speech level (quieter bursts
+// are not worth a listener's time). A run of flagged frames (holes of one
+// frame bridged) at most `maxSeconds` long is one burst when
+//   - the voice goes on through it: the pitch track is voiced `gapSeconds`
+//     before and after the run;
 //   - the band below `lowBandHz` has not dipped more than `maxLowDipDb`
-//     under its context — the vowel under a burst goes on, a consonant
-//     (a stop's release, a fricative's onset) takes the voice's low band down;
+//     under its context (median over the run's frames) — the vowel under a
+//     burst goes on, a consonant (a stop's release, a fricative's onset)
+//     takes the voice's low band down;
 //   - the band from `lowBandHz` to `bandHz` has risen less than
-//     `maxMidRiseDb` above its context — a burst is confined to the high
-//     band, a consonant's release is not.
-// A run of flagged frames at most `maxSeconds` long is one burst, and only
-// where the voice goes on through it: the pitch track is voiced
-// `gapSeconds` before and after the run.
+//     `maxMidRiseDb` above its context (median over the run) — a burst is
+//     confined to the high band, a consonant's release is not.
 //
 // Result: one event per burst in time order; value = the largest excess,
 // dB; span = the run's frames (centre ± half a hop). Takes whose Nyquist
