@@ -24,7 +24,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments alignArguments() {
     const AlignParams defaults;
     return Arguments(
         "align", "AUDIO (--text \"...\" | --text-file FILE) [OPTIONS]",
@@ -68,7 +68,7 @@ void printSummary(const std::string& path, const AlignResult& r, const std::stri
 }  // namespace
 
 int runAlign(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = alignArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one AUDIO file (see earmark-cli align --help)");

@@ -16,7 +16,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments analyzeArguments() {
     const PitchParams pitch;
     return Arguments(
         "analyze", "AUDIO [OPTIONS]",
@@ -116,7 +116,7 @@ void printSummary(const TakeAnalysis& a) {
 }  // namespace
 
 int runAnalyze(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = analyzeArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one AUDIO file (see earmark-cli analyze --help)");

@@ -17,7 +17,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments artefactsArguments() {
     return Arguments("artefacts", "AUDIO [OPTIONS]",
                      {
                          {"rules", "FILE", "", "scan rules (docs/rules-default.json); their detector settings apply"},
@@ -35,7 +35,7 @@ struct Found {
 }  // namespace
 
 int runArtefacts(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = artefactsArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one AUDIO file (see earmark-cli artefacts --help)");

@@ -23,7 +23,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments compareArguments() {
     const CompareParams defaults;
     return Arguments(
         "compare", "A B [OPTIONS]",
@@ -124,7 +124,7 @@ void printComparison(const std::string& pathA, const std::string& pathB, const T
 }  // namespace
 
 int runCompare(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = compareArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 2)
         throw UsageError("expects two audio files, A and B (see earmark-cli compare --help)");

@@ -29,7 +29,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments exportArguments() {
     return Arguments(
         "export", "FILE (--csv OUT | --json OUT | --bundle DIR) [OPTIONS]",
         {
@@ -102,7 +102,7 @@ private:
 }  // namespace
 
 int runExport(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = exportArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1) throw UsageError("expects exactly one session FILE (see --help)");
     if (!args.has("csv") && !args.has("json") && !args.has("bundle"))

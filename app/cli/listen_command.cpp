@@ -168,7 +168,7 @@ int runAnalyse(const Arguments& args) {
     const TestDesign d = store.design(name);
     std::vector<Answer> answers = store.answers(name);
     checkAnswers(d, answers, session.path());
-    AnalysisParams p;
+    listening::AnalysisParams p;
     p.bootstrapRounds = wholeNumber(args, "bootstrap", 2000, 0, 1000000);
     p.bootstrapSeed = seedOf(args, "seed");
     const auto test = parsePairedTest(args.valueOr("paired-test", "auto"));

@@ -21,7 +21,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments longformArguments() {
     return Arguments("longform", "TAKE [OPTIONS]",
                      {
                          {"json", "OUT|-", "", "write findings, per-window series, trends and joins as JSON "
@@ -64,7 +64,7 @@ void printSummary(const std::string& path, const LongformReport& report) {
 }  // namespace
 
 int runLongform(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = longformArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one TAKE audio file (see earmark-cli longform --help)");

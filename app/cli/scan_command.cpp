@@ -23,7 +23,7 @@
 namespace earmark::cli {
 namespace {
 
-Arguments makeArguments() {
+Arguments scanArguments() {
     return Arguments(
         "scan", "INPUT [OPTIONS]   (INPUT: a folder of audio files, or a manifest CSV id,audio[,text][,timings][,voice])",
         {
@@ -55,7 +55,7 @@ std::string clock(double seconds) {
 }  // namespace
 
 int runScan(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = scanArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1)
         throw UsageError("expects exactly one INPUT folder or manifest (see earmark-cli scan --help)");

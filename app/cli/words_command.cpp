@@ -21,7 +21,7 @@ namespace {
 
 using Json = nlohmann::ordered_json;
 
-Arguments makeArguments() {
+Arguments wordsArguments() {
     return Arguments("words", "AUDIO (--text \"...\" | --text-file FILE) [OPTIONS]",
                      {
                          {"text", "\"...\"", "", "the words the take should say (UTF-8, English)"},
@@ -85,7 +85,7 @@ Json toJson(const std::string& path, const WordEvidenceResult& r) {
 }  // namespace
 
 int runWords(const std::vector<std::string>& argv) {
-    Arguments args = makeArguments();
+    Arguments args = wordsArguments();
     if (args.parseOrPrintHelp(argv)) return kExitOk;
     if (args.positionals().size() != 1) throw UsageError("expects exactly one AUDIO file (see earmark-cli words --help)");
     if (args.has("text") == args.has("text-file")) throw UsageError("give the words with exactly one of --text or --text-file");

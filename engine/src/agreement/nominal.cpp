@@ -1,6 +1,7 @@
 #include "earmark/agreement/nominal.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 
 #include <cmath>
 #include <limits>
@@ -8,8 +9,6 @@
 
 namespace earmark::agreement {
 namespace {
-
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 // Category codes run 0 … categories − 1; returns that count.
 int countCategories(const RatingTable& table) {

@@ -1,6 +1,7 @@
 #include "earmark/agreement/span_matching.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -9,8 +10,6 @@
 
 namespace earmark::agreement {
 namespace {
-
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 void checkSpans(const std::vector<Span>& spans, const char* which) {
     for (const Span& s : spans)

@@ -1,6 +1,7 @@
 #include "earmark/listening/analysis.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -10,8 +11,6 @@
 
 namespace earmark::listening {
 namespace {
-
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 // Kept main answers as a dense raters × lines × systems table (NaN = none).
 struct Table {

@@ -1,5 +1,6 @@
 // Percentile bootstrap over raters and lines, and box-plot quantiles.
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 #include "earmark/listening/analysis.hpp"
 #include "seeded_random.hpp"
 
@@ -28,7 +29,6 @@ BootstrapResult bootstrapMeans(const std::vector<double>& cells, int raters, int
     if (!(alpha > 0 && alpha < 1)) throw ParamError("AnalysisParams.alpha", "must be in (0, 1)");
     if (cells.size() != static_cast<std::size_t>(raters) * lines * systems)
         throw ParamError("bootstrapMeans.cells", "must hold raters × lines × systems values");
-    constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
     const auto S = static_cast<std::size_t>(systems);
     std::vector<std::vector<double>> means(S);
     SeededRandom rng(seed);

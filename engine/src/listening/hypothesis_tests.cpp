@@ -1,6 +1,7 @@
 #include "earmark/listening/hypothesis_tests.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 #include "earmark/listening/distributions.hpp"
 
 #include <algorithm>
@@ -10,8 +11,6 @@
 
 namespace earmark::listening {
 namespace {
-
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 
 TestResult undefinedTest(int n, std::string why) {
     TestResult r;

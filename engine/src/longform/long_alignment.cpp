@@ -32,7 +32,7 @@ struct Token {
     std::size_t sentence = 0;
 };
 
-std::string quoted(const std::string& s) {
+std::string excerpt(const std::string& s) {
     return "'" + (s.size() > 40 ? s.substr(0, 37) + "..." : s) + "'";
 }
 
@@ -158,7 +158,7 @@ LongAlignResult alignLongText(const Signal& take, const std::string& text, const
 
         if (speechIn(speech, anchor, duration) < 0.5)
             throw InputError("text", "is longer than the take: no speech is left for sentence " + std::to_string(s + 1) +
-                                         " " + quoted(sentences[s].text) + " and after");
+                                         " " + excerpt(sentences[s].text) + " and after");
         const double expected = (chunkSyllables + lookSyllables) * secondsPerSyllable;
         // The last chunk has no sentences after it to soak up the error: it gets a margin instead.
         const bool last = look == sentences.size();
@@ -179,7 +179,7 @@ LongAlignResult alignLongText(const Signal& take, const std::string& text, const
             aligned = aligner(part, chunkText, progress.sub(anchor / duration, std::min(1.0, spanEnd / duration)));
         } catch (const InputError& err) {
             throw InputError("text", "sentences " + std::to_string(s + 1) + "–" + std::to_string(e) + " (from " +
-                                         quoted(sentences[s].text) + ") at " + seconds(anchor) + ": " + err.problem());
+                                         excerpt(sentences[s].text) + ") at " + seconds(anchor) + ": " + err.problem());
         }
         ++result.chunks;
         result.referenceChunks += aligned.method == "reference";
@@ -206,7 +206,7 @@ LongAlignResult alignLongText(const Signal& take, const std::string& text, const
             }
         if (std::isnan(lastEnd))
             throw InputError("text", "sentences " + std::to_string(s + 1) + "–" + std::to_string(e) + " (from " +
-                                         quoted(sentences[s].text) + ") could not be placed after " + seconds(anchor));
+                                         excerpt(sentences[s].text) + ") could not be placed after " + seconds(anchor));
         if (const Tier* ph = aligned.tiers.find(kPhonesTier))
             for (const Interval& p : ph->intervals) {
                 if (p.startS + anchor >= lastEnd) break;

@@ -1,6 +1,7 @@
 #include "earmark/longform/long_take.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 #include "earmark/dsp/frames.hpp"
 #include "earmark/longform/timbre.hpp"
 #include "earmark/loudness/bs1770.hpp"
@@ -17,7 +18,6 @@
 namespace earmark {
 namespace {
 
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 constexpr int kTimbreDims = 12;        // c1…c12
 constexpr double kMarginSeconds = 0.5;  // block margin: covers YIN's frame, step 6 and the MFCC window
 constexpr std::size_t kMaxTimbreReferences = 240;  // windows each window is compared with (evenly spaced)

@@ -1,6 +1,7 @@
 #include "earmark/longform/seams.hpp"
 
 #include "earmark/core/error.hpp"
+#include "earmark/core/numeric.hpp"
 #include "earmark/core/format.hpp"
 #include "earmark/longform/timbre.hpp"
 
@@ -15,7 +16,6 @@
 namespace earmark {
 namespace {
 
-constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
 constexpr double kMinSideSpeechSeconds = 3.0;  // least speech on each side for level and envelope
 // A click in a pause reads as a burst of "speech" this short that splits the
 // pause; the halves are joined again so the click lies inside one pause.
