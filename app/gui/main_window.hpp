@@ -163,6 +163,12 @@ private:
     void createMark(const widgets::MarkChoice& choice);
     void editMark(MarkId id, const MarkDraft& draft);
     void deleteSelectedMark();
+    // The mark as this window shows it (inspector, else lane), the base of an edit.
+    std::optional<Mark> shownMark(MarkId id) const;
+    // Copies the session's queue into takes_/takeIds_, keeping the current take.
+    void syncTakesFromSession();
+    // Another window, command line or rater changed the current take's tiers.
+    void showTiersChangedElsewhere(TakeId take);
     void goToMark(MarkId id, bool play);
     void setTakeStatus(ReviewStatus status);
     void locateAudio();

@@ -89,15 +89,14 @@ bool MainWindow::openSession(const QString& path) {
         const auto m = id ? session_->mark(id) : std::nullopt;
         if (m && currentTake_ && m->takeId == *currentTake_) selectMark(id);
     });
-    takes_.clear();
-    takeIds_.clear();
-    for (const Take& t : session_->takes()) {
-        takes_.push_back({QString::fromStdString(t.lineId.empty() ? std::to_string(t.id) : t.lineId),
-                          QString::fromStdString(t.audioPath), QString::fromStdString(t.text)});
-        takeIds_.push_back(t.id);
-    }
+    // Changes made elsewhere (other windows, command lines, raters) are shown as they come.
+    connect(session_, &SessionDocument::takesChanged, this, [this] { syncTakesFromSession(); });
+    connect(session_, &SessionDocument::tiersChangedElsewhere, this,
+            [this](qint64 take) { showTiersChangedElsewhere(take); });
+    connect(session_, &SessionDocument::changedElsewhere, this, [this](const QString& summary) { notify(summary, 6000); });
     currentRow_ = -1;
     currentTake_.reset();
+    syncTakesFromSession();
     queue_->setDocument(session_);
     markList_->setDocument(session_);
     takePanel_->setCurrentWidget(queue_);
@@ -107,6 +106,30 @@ bool MainWindow::openSession(const QString& path) {
     if (!takes_.empty()) selectTake(0);
     else notify(tr("The session has no takes yet: add them with earmark-cli session add."));
     return true;
+}
+
+void MainWindow::syncTakesFromSession() {
+    if (!session_) return;
+    takes_.clear();
+    takeIds_.clear();
+    for (const Take& t : session_->takes()) {
+        takes_.push_back({QString::fromStdString(t.lineId.empty() ? std::to_string(t.id) : t.lineId),
+                          QString::fromStdString(t.audioPath), QString::fromStdString(t.text)});
+        takeIds_.push_back(t.id);
+    }
+    if (currentTake_) currentRow_ = session_->indexOf(*currentTake_);  // the queue may have been reordered
+}
+
+void MainWindow::showTiersChangedElsewhere(TakeId take) {
+    if (!session_ || !currentTake_ || *currentTake_ != take) return;
+    const TierSet stored = session_->tiers(take);
+    // This window's own edits are already shown (with confidences the store does not keep).
+    if (toTierRows(stored) == toTierRows(tiers_)) return;
+    tiers_ = stored;
+    // Undoing an older tier edit now would overwrite the other rater's change.
+    undo_->clear();
+    showTiers();
+    notify(tr("The tiers of this take were changed elsewhere: showing them now (undo history cleared)."), 6000);
 }
 
 bool MainWindow::showSessionTake(const QString& key) {
@@ -253,9 +276,18 @@ void MainWindow::createMark(const MarkChoice& choice) {
                                             QKeySequence(QKeySequence::Undo).toString(QKeySequence::NativeText)), 4000);
 }
 
+std::optional<Mark> MainWindow::shownMark(MarkId id) const {
+    if (inspector_->mark() && inspector_->mark()->id == id) return inspector_->mark();
+    for (const Mark& m : markLane_->marks())
+        if (m.id == id) return m;
+    return session_ ? session_->mark(id) : std::nullopt;
+}
+
 void MainWindow::editMark(MarkId id, const MarkDraft& draft) {
     if (!session_) return;
-    const auto edit = session_->updateMark(id, draft);
+    const std::optional<Mark> asRead = shownMark(id);
+    if (!asRead) return;
+    const auto edit = session_->updateMark(*asRead, draft);
     if (!edit) {
         showMarks();  // put the lane and inspector back to the stored mark
         return;
@@ -269,8 +301,12 @@ void MainWindow::deleteSelectedMark() {
         notify(tr("Click a mark first."), 3000);
         return;
     }
-    const auto edit = session_->deleteMark(*selectedMark_);
-    if (!edit) return;
+    const std::optional<Mark> asRead = shownMark(*selectedMark_);
+    const auto edit = asRead ? session_->deleteMark(*asRead) : std::nullopt;
+    if (!edit) {
+        showMarks();  // gone or changed elsewhere: show it as it is now
+        return;
+    }
     undo_->push(new MarkCommand(session_, *edit));
     selectMark(std::nullopt);
 }

@@ -132,7 +132,7 @@ TEST(MarkList, ListsEveryMarkFiltersAndReportsClicks) {
     EXPECT_EQ(list.table()->item(list.shownCount() - 1, 5)->text(), "minor");
 
     // A deleted mark leaves the list at once.
-    ASSERT_TRUE(doc.deleteMark(id));
+    ASSERT_TRUE(doc.deleteMark(*doc.mark(id)));
     EXPECT_EQ(list.shownCount(), 6);
 }
 

@@ -3,13 +3,23 @@
 #include "earmark/marks/rater_name.hpp"
 #include "earmark/store/tier_rows.hpp"
 
+#include <QStringList>
+#include <QTimer>
+
+#include <algorithm>
 #include <exception>
+#include <map>
+#include <set>
 
 namespace earmark::widgets {
 
 SessionDocument::SessionDocument(const QString& path, QObject* parent)
-    : QObject(parent), session_(std::make_unique<Session>(Session::open(path.toStdString()))) {
+    : QObject(parent), session_(std::make_unique<Session>(Session::open(path.toStdString()))),
+      watch_(new QTimer(this)) {
+    lastSeenChange_ = session_->lastChangeId();
     reloadTakes();
+    connect(watch_, &QTimer::timeout, this, &SessionDocument::checkForChanges);
+    setWatchInterval(kWatchIntervalMs);
 }
 
 SessionDocument::~SessionDocument() = default;
@@ -102,18 +112,18 @@ std::optional<MarkEdit> SessionDocument::addMark(TakeId take, const MarkDraft& d
     return edit;
 }
 
-std::optional<MarkEdit> SessionDocument::updateMark(MarkId id, const MarkDraft& draft) {
+std::optional<MarkEdit> SessionDocument::updateMark(const Mark& asRead, const MarkDraft& draft) {
     std::optional<MarkEdit> edit;
-    if (!attempt([&] { edit = session_->updateMark(id, draft); })) return std::nullopt;
+    if (!attempt([&] { edit = session_->updateMark(asRead, draft); })) return std::nullopt;
     reloadTakes();
     emit marksChanged(edit->takeId);
     emit takesChanged();
     return edit;
 }
 
-std::optional<MarkEdit> SessionDocument::deleteMark(MarkId id) {
+std::optional<MarkEdit> SessionDocument::deleteMark(const Mark& asRead) {
     std::optional<MarkEdit> edit;
-    if (!attempt([&] { edit = session_->deleteMark(id); })) return std::nullopt;
+    if (!attempt([&] { edit = session_->deleteMark(asRead); })) return std::nullopt;
     reloadTakes();
     emit marksChanged(edit->takeId);
     emit takesChanged();
@@ -140,6 +150,52 @@ bool SessionDocument::setTiers(TakeId take, const TierSet& tiers) {
     if (!attempt([&] { session_->setTiers(take, toTierRows(tiers)); })) return false;
     emit tiersChanged(take);
     return true;
+}
+
+void SessionDocument::setWatchInterval(int ms) {
+    if (ms <= 0) {
+        watch_->stop();
+        return;
+    }
+    watch_->start(ms);
+}
+
+void SessionDocument::checkForChanges() {
+    std::vector<HistoryEntry> changes;
+    std::int64_t newest = lastSeenChange_;
+    // A failed look (server away for a moment) is tried again at the next tick, quietly.
+    try {
+        newest = session_->lastChangeId();
+        if (newest <= lastSeenChange_) return;
+        changes = session_->changesElsewhereSince(lastSeenChange_);
+    } catch (const std::exception&) {
+        return;
+    }
+    for (const HistoryEntry& e : changes) newest = std::max(newest, e.id);
+    lastSeenChange_ = newest;
+    if (changes.empty()) return;  // only this window's own changes
+    std::set<TakeId> marked, tiered;
+    std::map<std::string, std::set<TakeId>> takesByRater;
+    for (const HistoryEntry& e : changes) {
+        if (e.markId) marked.insert(e.takeId);
+        if (e.action == HistoryAction::Tiers) tiered.insert(e.takeId);
+        takesByRater[e.rater.empty() ? tr("someone").toStdString() : e.rater].insert(e.takeId);
+    }
+    reloadTakes();
+    emit takesChanged();
+    for (TakeId t : marked) emit marksChanged(t);
+    for (TakeId t : tiered) emit tiersChangedElsewhere(t);
+    QStringList parts;
+    for (const auto& [rater, takes] : takesByRater) {
+        QStringList names;
+        for (TakeId t : takes) {
+            const Take* take = this->take(t);
+            names << (take && !take->lineId.empty() ? QString::fromStdString(take->lineId) : QString::number(t));
+        }
+        if (names.size() > 3) names = names.mid(0, 3) << tr("%n more", nullptr, static_cast<int>(takes.size()) - 3);
+        parts << tr("%1 changed %2").arg(QString::fromStdString(rater), names.join(", "));
+    }
+    emit changedElsewhere(parts.join("; "));
 }
 
 }  // namespace earmark::widgets

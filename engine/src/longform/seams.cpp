@@ -154,7 +154,7 @@ std::vector<JoinMeasures> measureJoins(const Signal& take, const LongTakeTracks&
             // The pause, and the click-long edges either side: a click near
             // the next speech joins that speech and shortens the pause.
             measureClick(take, pause->startS, pause->endS, j);
-            for (const auto [a, b] : {std::pair{pause->startS - kClickSpeechSeconds, pause->startS},
+            for (const auto& [a, b] : {std::pair{pause->startS - kClickSpeechSeconds, pause->startS},
                                       std::pair{pause->endS, pause->endS + kClickSpeechSeconds}}) {
                 JoinMeasures nearby = j;
                 measureClick(take, a, b, nearby);

@@ -6,6 +6,7 @@
 #include "earmark/marks/rater_name.hpp"
 
 #include <array>
+#include <functional>
 #include <set>
 
 namespace earmark {
@@ -40,9 +41,12 @@ void Session::Impl::record(TakeId take, std::optional<MarkId> mark, HistoryActio
                  "INSERT INTO review_history (at_utc, rater, take_id, mark_id, action, detail) "
                  "VALUES (?1, ?2, ?3, ?4, ?5, ?6)",
                  "recording the review history");
-    st.bind(1, store::utcNowIso8601()).bind(2, rater).bind(3, take);
+    const std::string at = store::utcNowIso8601();
+    st.bind(1, at).bind(2, rater).bind(3, take);
     if (mark) st.bind(4, *mark);
     st.bind(5, historyActionName(action)).bind(6, detail).run();
+    const std::int64_t id = db.lastInsertId();
+    recordedHere[id] = HistoryEntry{id, at, rater, take, mark, action, detail};
 }
 
 void Session::setRater(const std::string& name) {
@@ -52,14 +56,16 @@ void Session::setRater(const std::string& name) {
 
 const std::string& Session::rater() const { return impl_->rater; }
 
-std::vector<HistoryEntry> Session::history(std::optional<TakeId> take) const {
-    store::ReadTransaction read(impl_->db);
-    if (take) impl_->readTake(*take);
-    Statement st(impl_->db,
-                 std::string("SELECT id, at_utc, rater, take_id, mark_id, action, detail FROM review_history ") +
-                     (take ? "WHERE take_id = ?1 " : "") + "ORDER BY id",
+namespace {
+
+// History rows chosen by `where` (binding its parameters with `bind`), oldest first.
+std::vector<HistoryEntry> readHistory(const Session::Impl& impl, const std::string& where,
+                                      const std::function<void(Statement&)>& bind) {
+    Statement st(impl.db,
+                 "SELECT id, at_utc, rater, take_id, mark_id, action, detail FROM review_history " + where +
+                     " ORDER BY id",
                  "reading the review history");
-    if (take) st.bind(1, *take);
+    bind(st);
     std::vector<HistoryEntry> out;
     while (st.step()) {
         HistoryEntry e;
@@ -70,13 +76,48 @@ std::vector<HistoryEntry> Session::history(std::optional<TakeId> take) const {
         if (const std::int64_t mark = st.integer(4); mark != 0) e.markId = mark;
         const auto action = parseHistoryAction(st.text(5));
         if (!action)
-            throw InputError(impl_->db.path, "history entry " + std::to_string(e.id) + " has an unknown action '" +
-                                                 st.text(5) + "'");
+            throw InputError(impl.db.path, "history entry " + std::to_string(e.id) + " has an unknown action '" +
+                                               st.text(5) + "'");
         e.action = *action;
         e.detail = st.text(6);
         out.push_back(std::move(e));
     }
     return out;
+}
+
+}  // namespace
+
+std::vector<HistoryEntry> Session::history(std::optional<TakeId> take) const {
+    store::ReadTransaction read(impl_->db);
+    if (take) impl_->readTake(*take);
+    return readHistory(*impl_, take ? "WHERE take_id = ?1" : "", [&](Statement& st) {
+        if (take) st.bind(1, *take);
+    });
+}
+
+std::vector<HistoryEntry> Session::changesSince(std::int64_t afterId) const {
+    return readHistory(*impl_, "WHERE id > ?1", [&](Statement& st) { st.bind(1, afterId); });
+}
+
+std::vector<HistoryEntry> Session::changesElsewhereSince(std::int64_t afterId) const {
+    std::vector<HistoryEntry> out = changesSince(afterId);
+    std::erase_if(out, [&](const HistoryEntry& e) {
+        const auto here = impl_->recordedHere.find(e.id);
+        return here != impl_->recordedHere.end() && here->second == e;
+    });
+    return out;
+}
+
+std::optional<HistoryEntry> Session::Impl::lastChangeOfMark(MarkId mark) const {
+    auto entries = readHistory(*this, "WHERE id = (SELECT MAX(id) FROM review_history WHERE mark_id = ?1)",
+                               [&](Statement& st) { st.bind(1, mark); });
+    if (entries.empty()) return std::nullopt;
+    return std::move(entries.front());
+}
+
+std::int64_t Session::lastChangeId() const {
+    Statement st(impl_->db, "SELECT COALESCE(MAX(id), 0) FROM review_history", "reading the review history");
+    return st.step() ? st.integer(0) : 0;
 }
 
 std::map<TakeId, std::set<std::string>> Session::reviewers() const {

@@ -5,6 +5,7 @@
 #include "db.hpp"
 
 #include <filesystem>
+#include <map>
 #include <string>
 
 namespace earmark {
@@ -14,9 +15,15 @@ struct Session::Impl {
     std::filesystem::path folder;  // absolute folder of the session file (audio paths are relative to it)
     bool readOnly = false;
     std::string rater;  // Session::setRater
+    // History entries this Session recorded, by id: changesElsewhereSince
+    // leaves them out. Kept whole, so an id that a rolled-back transaction
+    // used and another connection's entry took over is not mistaken for ours.
+    std::map<std::int64_t, HistoryEntry> recordedHere;
 
     // Appends a row to the review history (inside the caller's transaction).
     void record(TakeId take, std::optional<MarkId> mark, HistoryAction action, const std::string& detail);
+    // The newest history entry about a mark; empty when none names it.
+    std::optional<HistoryEntry> lastChangeOfMark(MarkId mark) const;
 
     // Throws Error when the session was opened read-only.
     void requireWritable(const std::string& doing) const;

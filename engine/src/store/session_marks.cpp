@@ -114,6 +114,30 @@ std::string historyDetail(const Mark& m) {
     return kind + span;
 }
 
+// "by ben at 2026-12-05T20:41:03.120Z": who made the newest change of a mark.
+std::string changedBy(const Session::Impl& impl, MarkId id) {
+    const auto last = impl.lastChangeOfMark(id);
+    if (!last) return "elsewhere";
+    return "by " + (last->rater.empty() ? std::string("a rater without a name") : last->rater) + " at " + last->atUtc;
+}
+
+// The stored mark `id`; when `asRead` is given, refused (ConflictError,
+// nothing changed) unless the stored mark is still exactly `asRead`.
+Mark markToChange(const Session::Impl& impl, MarkId id, const Mark* asRead, const std::string& doing) {
+    if (!asRead) return impl.readMark(id);
+    const std::optional<Mark> stored = impl.findMark(id);
+    const std::string what = "mark " + std::to_string(id);
+    if (!stored)
+        throw ConflictError(impl.db.path, "cannot " + doing + ": " + what + " was deleted " + changedBy(impl, id) +
+                                              " since it was read; nothing was changed");
+    if (*stored != *asRead)
+        throw ConflictError(impl.db.path, "cannot " + doing + ": " + what + " was changed " + changedBy(impl, id) +
+                                              " since it was read (it is now " + historyDetail(*stored) +
+                                              "); nothing was changed — look at it again and repeat the change "
+                                              "if it still applies");
+    return *stored;
+}
+
 }  // namespace
 
 std::optional<Mark> Session::Impl::findMark(MarkId id) const {
@@ -146,35 +170,46 @@ MarkEdit Session::addMark(TakeId takeId, const MarkDraft& draft) {
     return edit;
 }
 
-MarkEdit Session::updateMark(MarkId id, const MarkDraft& draft) {
-    impl_->requireWritable("change a mark");
-    WriteTransaction tx(impl_->db, "changing a mark");
-    const Mark before = impl_->readMark(id);
-    const Take take = impl_->readTake(before.takeId);
+namespace {
+
+MarkEdit changeMark(Session::Impl& impl, MarkId id, const Mark* asRead, const MarkDraft& draft) {
+    impl.requireWritable("change a mark");
+    WriteTransaction tx(impl.db, "changing a mark");
+    const Mark before = markToChange(impl, id, asRead, "change a mark");
+    const Take take = impl.readTake(before.takeId);
     Mark after = before;
-    static_cast<MarkDraft&>(after) = prepareDraft(*impl_, take, draft);
+    static_cast<MarkDraft&>(after) = prepareDraft(impl, take, draft);
     after.updatedUtc = store::utcNowIso8601();
-    writeMark(impl_->db, after);
-    impl_->record(take.id, id, HistoryAction::MarkChanged, historyDetail(after));
+    writeMark(impl.db, after);
+    impl.record(take.id, id, HistoryAction::MarkChanged, historyDetail(after));
     tx.commit();
     return {before, after, take.id, take.status, take.status};
 }
 
-MarkEdit Session::deleteMark(MarkId id) {
-    impl_->requireWritable("delete a mark");
-    WriteTransaction tx(impl_->db, "deleting a mark");
-    const Mark before = impl_->readMark(id);
-    const ReviewStatus status = impl_->readStatus(before.takeId);
-    eraseMark(impl_->db, id);
-    impl_->record(before.takeId, id, HistoryAction::MarkDeleted, historyDetail(before));
+MarkEdit removeMark(Session::Impl& impl, MarkId id, const Mark* asRead) {
+    impl.requireWritable("delete a mark");
+    WriteTransaction tx(impl.db, "deleting a mark");
+    const Mark before = markToChange(impl, id, asRead, "delete a mark");
+    const ReviewStatus status = impl.readStatus(before.takeId);
+    eraseMark(impl.db, id);
+    impl.record(before.takeId, id, HistoryAction::MarkDeleted, historyDetail(before));
     MarkEdit edit{before, std::nullopt, before.takeId, status, status};
-    if (status == ReviewStatus::HasMarks && impl_->countMarks(before.takeId) == 0) {
+    if (status == ReviewStatus::HasMarks && impl.countMarks(before.takeId) == 0) {
         edit.statusAfter = ReviewStatus::InReview;
-        impl_->writeStatus(before.takeId, edit.statusAfter);
+        impl.writeStatus(before.takeId, edit.statusAfter);
     }
     tx.commit();
     return edit;
 }
+
+}  // namespace
+
+MarkEdit Session::updateMark(MarkId id, const MarkDraft& draft) { return changeMark(*impl_, id, nullptr, draft); }
+MarkEdit Session::updateMark(const Mark& asRead, const MarkDraft& draft) {
+    return changeMark(*impl_, asRead.id, &asRead, draft);
+}
+MarkEdit Session::deleteMark(MarkId id) { return removeMark(*impl_, id, nullptr); }
+MarkEdit Session::deleteMark(const Mark& asRead) { return removeMark(*impl_, asRead.id, &asRead); }
 
 void Session::apply(const MarkEdit& edit) {
     impl_->requireWritable("undo or redo a mark change");

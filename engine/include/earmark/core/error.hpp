@@ -45,6 +45,15 @@ public:
     using Error::Error;
 };
 
+// A change refused because what it was based on changed since it was read:
+// another window or rater edited or deleted the same mark. `subject` is the
+// session; the problem names who changed it and when, and that nothing was
+// changed. The command line exits 1.
+class ConflictError : public Error {
+public:
+    using Error::Error;
+};
+
 // Thrown when a progress callback asked to stop.
 class Cancelled : public std::runtime_error {
 public:

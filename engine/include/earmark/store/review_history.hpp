@@ -27,6 +27,7 @@ struct HistoryEntry {
     // What changed, in words: the new status ("clean"); the mark's kind and
     // span ("timing/rushed 1.200-1.500 s"); the tier intervals ("12 intervals").
     std::string detail;
+    bool operator==(const HistoryEntry&) const = default;
 };
 
 // A take given to a rater to review (earmark/agreement/assignment.hpp draws them).

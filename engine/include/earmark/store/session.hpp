@@ -155,6 +155,12 @@ public:
     MarkEdit addMark(TakeId take, const MarkDraft& draft);
     MarkEdit updateMark(MarkId id, const MarkDraft& draft);
     MarkEdit deleteMark(MarkId id);
+    // The same, for a change based on a mark read earlier (a window shows
+    // `asRead` while its rater edits): refused with ConflictError, nothing
+    // changed, when the stored mark is no longer `asRead` — another window
+    // or rater changed or deleted it since. The message names who and when.
+    MarkEdit updateMark(const Mark& asRead, const MarkDraft& draft);
+    MarkEdit deleteMark(const Mark& asRead);
     // Redo / undo an edit returned above. Refuses (Error, nothing changed)
     // when the mark is no longer as the edit left it (changed elsewhere).
     void apply(const MarkEdit& edit);
@@ -173,6 +179,14 @@ public:
     const std::string& rater() const;
     // The history of the session (of one take, when given), oldest first.
     std::vector<HistoryEntry> history(std::optional<TakeId> take = std::nullopt) const;
+    // The history entries after `afterId` (an entry's id; 0 for all), oldest
+    // first: what a window polls to show changes made by other windows,
+    // command lines and raters (every mark, status and tier change writes one).
+    std::vector<HistoryEntry> changesSince(std::int64_t afterId) const;
+    // The same without the changes made through this Session object.
+    std::vector<HistoryEntry> changesElsewhereSince(std::int64_t afterId) const;
+    // The id of the newest history entry; 0 for none.
+    std::int64_t lastChangeId() const;
     // Raters who reviewed each take: who made, changed or deleted a mark on
     // it, who set its status to clean or has-marks, and the raters of its
     // marks. Takes nobody named reviewed are absent. (Being assigned a take

@@ -1,7 +1,11 @@
-// An open `.earmark` session as the window sees it: the engine's Session
-// (every change committed at once, no save), a cached copy of its queue, and
-// signals when takes, marks or tiers change. Mark and tier changes that the
-// person makes go through edit_commands.hpp so they can be undone.
+// An open session as the window sees it: the engine's Session (every change
+// committed at once, no save), a cached copy of its queue, and signals when
+// takes, marks or tiers change — by this window, or elsewhere (other windows,
+// command lines and raters on the same file or server, found by polling the
+// review history). Mark and tier changes that the person makes go through
+// edit_commands.hpp so they can be undone. A mark is changed or deleted on the
+// basis of the mark as the window read it: when someone changed it since, the
+// change is refused (problem() names who) rather than overwriting theirs.
 //
 // Errors: open() throws what Session::open throws (InputError naming the
 // file). Other calls catch engine errors and report them through problem()
@@ -16,6 +20,9 @@
 #include <QObject>
 #include <QString>
 
+class QTimer;
+
+#include <cstdint>
 #include <memory>
 #include <optional>
 #include <vector>
@@ -52,13 +59,22 @@ public:
 
     // The engine's edit on success; empty (and problem() emitted) on failure.
     std::optional<MarkEdit> addMark(TakeId take, const MarkDraft& draft);
-    std::optional<MarkEdit> updateMark(MarkId id, const MarkDraft& draft);
-    std::optional<MarkEdit> deleteMark(MarkId id);
+    // `asRead`: the mark as the window shows it (see the class comment).
+    std::optional<MarkEdit> updateMark(const Mark& asRead, const MarkDraft& draft);
+    std::optional<MarkEdit> deleteMark(const Mark& asRead);
     bool applyEdit(const MarkEdit& edit);  // redo
     bool revertEdit(const MarkEdit& edit); // undo
 
     TierSet tiers(TakeId take) const;  // without confidences (the store keeps none)
     bool setTiers(TakeId take, const TierSet& tiers);
+
+    // How often to look for changes made elsewhere, in milliseconds (0: never).
+    // The constructor starts it at kWatchIntervalMs.
+    void setWatchInterval(int ms);
+    static constexpr int kWatchIntervalMs = 2000;
+    // Looks now (what the timer does): emits the signals below for every take
+    // changed elsewhere since the last look, then changedElsewhere once.
+    void checkForChanges();
 
 signals:
     void takesChanged();                 // statuses, mark counts, audio paths
@@ -66,6 +82,11 @@ signals:
     // An undo or redo has put a mark back (0 when the mark is gone after it).
     void markRestored(qint64 mark);
     void tiersChanged(qint64 take);
+    // Tiers changed elsewhere (tiersChanged is this window's own change).
+    void tiersChangedElsewhere(qint64 take);
+    // Changes made elsewhere were found (after the signals above): `summary`
+    // says who changed what ("ben: 2 marks on ferry-003").
+    void changedElsewhere(const QString& summary);
     void problem(const QString& message);
 
 private:
@@ -74,6 +95,8 @@ private:
     void reloadTakes();
 
     std::unique_ptr<Session> session_;
+    QTimer* watch_ = nullptr;
+    std::int64_t lastSeenChange_ = 0;  // review-history id checkForChanges has looked at
     std::vector<Take> takes_;
     std::vector<bool> missing_;  // parallel to takes_
 };
