@@ -1,5 +1,6 @@
 #include "earmark/scan/scan_session.hpp"
 
+#include "earmark/core/error.hpp"
 #include "earmark/marks/utf8.hpp"
 #include "earmark/store/session.hpp"
 
@@ -89,13 +90,19 @@ SessionWriteSummary fillScanSession(Session& session, const ScanReport& report, 
 
 SessionWriteSummary writeScanSession(const std::string& sessionPath, const ScanReport& report,
                                      const std::vector<ScanItem>& items) {
-    if (fs::exists(sessionPath)) {
-        Session session = Session::open(sessionPath);
-        return fillScanSession(session, report, items);
+    if (!Session::exists(sessionPath)) {
+        try {
+            SessionWriteSummary summary;
+            Session::createWhole(sessionPath,
+                                 [&](Session& session) { summary = fillScanSession(session, report, items); });
+            return summary;
+        } catch (const InputError&) {
+            // Another scan (a shard on another node) made it meanwhile: write into theirs.
+            if (!Session::exists(sessionPath)) throw;
+        }
     }
-    SessionWriteSummary summary;
-    Session::createWhole(sessionPath, [&](Session& session) { summary = fillScanSession(session, report, items); });
-    return summary;
+    Session session = Session::open(sessionPath);
+    return fillScanSession(session, report, items);
 }
 
 }  // namespace earmark

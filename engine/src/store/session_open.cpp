@@ -247,6 +247,15 @@ Session Session::openOnServer(const std::string& uri, OpenMode mode) {
     return Session(std::move(impl));
 }
 
+bool Session::exists(const std::string& address) {
+    if (!isServerSession(address)) {
+        std::error_code ec;
+        return fs::exists(address, ec);
+    }
+    const Db db = store::connectPostgres(address);
+    return store::userVersion(db) != 0;
+}
+
 Session Session::open(const std::string& path, OpenMode mode) {
     if (isServerSession(path)) return openOnServer(path, mode);
     checkExistingFile(path);

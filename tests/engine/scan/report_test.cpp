@@ -8,6 +8,7 @@
 #include "earmark/scan/scan_session.hpp"
 #include "earmark/store/session.hpp"
 #include "scan_rows.hpp"
+#include "support/pg_test_server.hpp"
 #include "support/temp_dir.hpp"
 #include "support/test_signals.hpp"
 
@@ -15,6 +16,7 @@
 
 #include <algorithm>
 #include <fstream>
+#include <thread>
 
 namespace earmark {
 namespace {
@@ -191,6 +193,44 @@ TEST(ScanSession, WritesTheRankedQueueAndSuspects) {
     EXPECT_EQ(again.added, 0);
     EXPECT_EQ(again.updated, 8);
     EXPECT_EQ(Session::open(path).takes().size(), 8u);
+}
+
+// A team session on a server: the scan writes into one that exists (made by
+// `session new` or an earlier scan), and two shards that write at once into
+// an empty database both land — the one that comes second writes into the
+// session the first made.
+TEST(ScanSession, WritesIntoAServerSessionAlsoFromTwoShardsAtOnce) {
+    std::string why;
+    test::PgTestServer* server = test::PgTestServer::shared(&why);
+    if (!server) GTEST_SKIP() << why;
+    SmallSet set;
+    ScanSettings settings = withoutWordRules();
+    const ScanReport report = makeReport(runScan(set.items, settings), settings.rules);
+
+    const std::string existing = server->newDatabase();
+    Session::create(existing);
+    EXPECT_EQ(writeScanSession(existing, report, set.items).added, 8);
+    EXPECT_EQ(writeScanSession(existing, report, set.items).updated, 8);
+    EXPECT_EQ(Session::open(existing).takes().size(), 8u);
+
+    const std::string empty = server->newDatabase();
+    std::vector<ScanReport> parts;
+    for (int k = 1; k <= 2; ++k)
+        parts.push_back(makeReport(runScan(selectShard(set.items, Shard{k, 2}), settings), settings.rules));
+    std::vector<std::string> problems(2);
+    std::vector<std::thread> shards;
+    for (std::size_t k = 0; k < 2; ++k)
+        shards.emplace_back([&, k] {
+            try {
+                writeScanSession(empty, parts[k], set.items);
+            } catch (const std::exception& e) {
+                problems[k] = e.what();
+            }
+        });
+    for (auto& t : shards) t.join();
+    EXPECT_EQ(problems[0], "");
+    EXPECT_EQ(problems[1], "");
+    EXPECT_EQ(Session::open(empty).takes().size(), 8u);
 }
 
 }  // namespace

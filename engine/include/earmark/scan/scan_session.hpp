@@ -13,7 +13,10 @@ struct SessionWriteSummary {
     int skipped = 0;   // failed rows (unreadable audio cannot join a queue)
 };
 
-// Creates the session file if it does not exist, else opens it. Adds every
+// Creates the session if it does not exist (a file, or the schema in an
+// empty database on a server), else opens it. Several scans may write into
+// one session at once (shards on several nodes): when two create it at the
+// same moment, the second writes into the session the first made. Adds every
 // measured take not yet in it (matched by the audio file's canonical path),
 // replaces each scanned take's suspects, and puts the scanned takes at the
 // front of the queue in ranking order (other takes keep their order behind

@@ -65,6 +65,10 @@ public:
     // exists; Error when the folder is missing or not writable.
     static Session create(const std::string& path);
     static Session open(const std::string& path, OpenMode mode = OpenMode::ReadWrite);
+    // Whether `address` holds a session (or anything else) already: a file
+    // that exists, or a database with an Earmark schema. InputError when the
+    // server cannot be reached.
+    static bool exists(const std::string& address);
     // Creates a new session file whole: built under a hidden name beside
     // `path` (".NAME.new-PID"), filled by `fill` and moved into place only
     // after `fill` returned and the file was closed, so a failed or killed
